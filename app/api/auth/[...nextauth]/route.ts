@@ -1,0 +1,6 @@
+// next-auth endpoints: sign-in (password, e-mail link), callback, session, sign-out
+import NextAuth from "next-auth";
+import { authOptions } from "@/lib/auth/auth-options";
+
+const handler = NextAuth(authOptions);
+export { handler as GET, handler as POST };

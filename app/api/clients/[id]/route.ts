@@ -1,0 +1,21 @@
+// GET/PATCH/DELETE /api/clients/:id: read, edit, archive one client (DELETE archives; nothing is erased)
+import { withOrg, readJson, idParam, ok } from "@/lib/api/with-org";
+import { clientInput } from "@/lib/validation/work";
+import { getClientOrThrow, updateClient } from "@/lib/work/clients";
+import { z } from "zod";
+
+type P = { id: string };
+const patch = clientInput.partial().extend({ archived: z.boolean().optional() }).strict();
+
+export const GET = withOrg<P>({ permission: "workspace.read" }, async ({ params, member }) =>
+  ok(await getClientOrThrow(member.organisationId, idParam(params.id, "Client not found"))),
+);
+
+export const PATCH = withOrg<P>({ permission: "clients.write" }, async ({ req, params, member }) => {
+  const id = idParam(params.id, "Client not found");
+  return ok(await updateClient(member.organisationId, id, await readJson(req, patch)));
+});
+
+export const DELETE = withOrg<P>({ permission: "clients.write" }, async ({ params, member }) =>
+  ok(await updateClient(member.organisationId, idParam(params.id, "Client not found"), { archived: true })),
+);

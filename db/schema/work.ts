@@ -1,0 +1,85 @@
+// Clients, sites, jobs, flights: how a crew files its work.
+import { pgTable, uuid, text, timestamp, doublePrecision, date, boolean, index } from "drizzle-orm/pg-core";
+import { organisations, users, timestamps } from "./organisations";
+import { assetKindEnum, jobStatusEnum } from "./enums";
+
+const orgRef = () => uuid("organisation_id").notNull().references(() => organisations.id, { onDelete: "cascade" });
+
+export const clients = pgTable(
+  "clients",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    organisationId: orgRef(),
+    name: text("name").notNull(),
+    contactName: text("contact_name"),
+    contactEmail: text("contact_email"),
+    notes: text("notes"),
+    archivedAt: timestamp("archived_at", { withTimezone: true }),
+    ...timestamps,
+  },
+  (t) => [index("clients_org_name_idx").on(t.organisationId, t.name)],
+);
+
+export const sites = pgTable(
+  "sites",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    organisationId: orgRef(),
+    clientId: uuid("client_id").notNull().references(() => clients.id),
+    name: text("name").notNull(),
+    address: text("address"),
+    latitude: doublePrecision("latitude"),
+    longitude: doublePrecision("longitude"),
+    timeZone: text("time_zone").notNull().default("UTC"),
+    assetKind: assetKindEnum("asset_kind").notNull().default("other"),
+    launchNotes: text("launch_notes"),
+    archivedAt: timestamp("archived_at", { withTimezone: true }),
+    ...timestamps,
+  },
+  (t) => [index("sites_org_client_idx").on(t.organisationId, t.clientId), index("sites_org_name_idx").on(t.organisationId, t.name)],
+);
+
+export const jobs = pgTable(
+  "jobs",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    organisationId: orgRef(),
+    siteId: uuid("site_id").notNull().references(() => sites.id),
+    title: text("title").notNull(),
+    scope: text("scope"),
+    dueDate: date("due_date"),
+    status: jobStatusEnum("status").notNull().default("planned"),
+    pilotId: uuid("pilot_id").references(() => users.id, { onDelete: "set null" }),
+    reviewerId: uuid("reviewer_id").references(() => users.id, { onDelete: "set null" }),
+    legalHold: boolean("legal_hold").notNull().default(false),
+    legalHoldReason: text("legal_hold_reason"),
+    archivedAt: timestamp("archived_at", { withTimezone: true }),
+    ...timestamps,
+  },
+  (t) => [
+    index("jobs_org_status_idx").on(t.organisationId, t.status),
+    index("jobs_org_site_idx").on(t.organisationId, t.siteId),
+    index("jobs_org_due_idx").on(t.organisationId, t.dueDate),
+  ],
+);
+
+export const flights = pgTable(
+  "flights",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    organisationId: orgRef(),
+    jobId: uuid("job_id").notNull().references(() => jobs.id),
+    flownOn: date("flown_on").notNull(),
+    pilotId: uuid("pilot_id").references(() => users.id, { onDelete: "set null" }),
+    aircraft: text("aircraft"),
+    launchLatitude: doublePrecision("launch_latitude"),
+    launchLongitude: doublePrecision("launch_longitude"),
+    launchNotes: text("launch_notes"),
+    // stored in metres; shown in the user's units
+    maxAltitudeAglM: doublePrecision("max_altitude_agl_m"),
+    notes: text("notes"),
+    archivedAt: timestamp("archived_at", { withTimezone: true }),
+    ...timestamps,
+  },
+  (t) => [index("flights_org_job_idx").on(t.organisationId, t.jobId), index("flights_org_date_idx").on(t.organisationId, t.flownOn)],
+);

@@ -1,0 +1,71 @@
+#!/usr/bin/env bash
+# Starts PostgreSQL, Redis and the fake mail server on loopback with data under .data/.
+# Idempotent: anything already running is left alone. With DATABASE_URL / REDIS_URL / SMTP_URL
+# set in the environment, that service is external and nothing is started for it.
+source "$(dirname "${BASH_SOURCE[0]}")/lib.sh"
+bash "$ROOT/docker-less-dev/install-packages.sh"
+mkdir -p "$DATA/logs"
+
+start_postgres() {
+  local bin; bin="$(pg_bin)"
+  mkdir -p "$PG_DATA" "$PG_RUN"
+  if [ "$(id -u)" = "0" ]; then
+    chown postgres:postgres "$PG_DATA" "$PG_RUN"; chmod 700 "$PG_DATA"
+    touch "$PG_LOG"; chown postgres:postgres "$PG_LOG"
+    # the postgres user must be able to reach the data folder
+    local d="$DATA"; while [ "$d" != "/" ]; do chmod o+x "$d" 2>/dev/null || true; d="$(dirname "$d")"; done
+  fi
+  if [ ! -f "$PG_DATA/PG_VERSION" ]; then
+    log "initialising PostgreSQL cluster in $PG_DATA"
+    local pw; pw="$(mktemp)"; echo "$PG_SUPERPASS" > "$pw"; chmod 644 "$pw"
+    as_pg "$bin/initdb" -D "$PG_DATA" -U "$PG_SUPERUSER" --pwfile="$pw" --auth=scram-sha-256 -E UTF8 --locale=C.UTF-8 >/dev/null
+    rm -f "$pw"
+  fi
+  if as_pg "$bin/pg_ctl" -D "$PG_DATA" status >/dev/null 2>&1; then
+    log "PostgreSQL already running on 127.0.0.1:$PG_PORT"
+  else
+    as_pg "$bin/pg_ctl" -D "$PG_DATA" -l "$PG_LOG" -w -t 60 \
+      -o "-c listen_addresses=127.0.0.1 -p $PG_PORT -k $PG_RUN -c fsync=on" start >/dev/null
+    log "PostgreSQL started on 127.0.0.1:$PG_PORT"
+  fi
+  # The app connects as a role without superuser, so it cannot disable the custody log's trigger.
+  PGPASSWORD="$PG_SUPERPASS" psql -q -h 127.0.0.1 -p "$PG_PORT" -U "$PG_SUPERUSER" -d postgres -v ON_ERROR_STOP=1 <<SQL >/dev/null
+DO \$\$ BEGIN
+  IF NOT EXISTS (SELECT FROM pg_roles WHERE rolname = '$PG_APPUSER') THEN
+    CREATE ROLE $PG_APPUSER LOGIN PASSWORD '$PG_APPPASS' NOSUPERUSER NOCREATEDB NOCREATEROLE;
+  END IF;
+END \$\$;
+SQL
+  for db in cairn cairn_test; do
+    if ! PGPASSWORD="$PG_SUPERPASS" psql -h 127.0.0.1 -p "$PG_PORT" -U "$PG_SUPERUSER" -d postgres -tAc "SELECT 1 FROM pg_database WHERE datname='$db'" | grep -q 1; then
+      PGPASSWORD="$PG_SUPERPASS" createdb -h 127.0.0.1 -p "$PG_PORT" -U "$PG_SUPERUSER" "$db"
+      log "created database $db"
+    fi
+  done
+}
+
+start_redis() {
+  mkdir -p "$REDIS_DIR"
+  if redis-cli -h 127.0.0.1 -p "$REDIS_PORT" ping >/dev/null 2>&1; then
+    log "Redis already running on 127.0.0.1:$REDIS_PORT"; return
+  fi
+  redis-server --bind 127.0.0.1 --port "$REDIS_PORT" --dir "$REDIS_DIR" --appendonly yes \
+    --maxmemory-policy noeviction --daemonize yes --pidfile "$REDIS_DIR/redis.pid" \
+    --logfile "$DATA/logs/redis.log" --save ""
+  for _ in $(seq 1 50); do redis-cli -h 127.0.0.1 -p "$REDIS_PORT" ping >/dev/null 2>&1 && break; sleep 0.1; done
+  log "Redis started on 127.0.0.1:$REDIS_PORT"
+}
+
+start_smtp() {
+  if (exec 3<>"/dev/tcp/127.0.0.1/$SMTP_PORT") 2>/dev/null; then
+    log "fake mail server already running on 127.0.0.1:$SMTP_PORT"; return
+  fi
+  mkdir -p "$DATA/mail"
+  (cd "$ROOT" && nohup node_modules/.bin/tsx docker-less-dev/fake-smtp.ts >>"$DATA/logs/fake-smtp.log" 2>&1 & echo $! > "$DATA/fake-smtp.pid")
+  for _ in $(seq 1 100); do (exec 3<>"/dev/tcp/127.0.0.1/$SMTP_PORT") 2>/dev/null && break; sleep 0.1; done
+  log "fake mail server on 127.0.0.1:$SMTP_PORT (messages in $DATA/mail)"
+}
+
+if [ -n "${DATABASE_URL:-}" ]; then log "DATABASE_URL set: using that PostgreSQL"; else start_postgres; fi
+if [ -n "${REDIS_URL:-}" ]; then log "REDIS_URL set: using that Redis"; else start_redis; fi
+if [ -n "${SMTP_URL:-}" ]; then log "SMTP_URL set: using that mail server"; else start_smtp; fi

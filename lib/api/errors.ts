@@ -1,0 +1,62 @@
+// One error class, one code-to-status table, one JSON body shape for every API answer that fails.
+import { ZodError } from "zod";
+
+export const ERROR_STATUS = {
+  bad_request: 400,
+  unauthenticated: 401,
+  forbidden: 403,
+  not_found: 404,
+  conflict: 409,
+  gone: 410,
+  payload_too_large: 413,
+  unsupported_media_type: 415,
+  range_not_satisfiable: 416,
+  unprocessable: 422,
+  locked: 423,
+  rate_limited: 429,
+  internal: 500,
+} as const;
+export type ErrorCode = keyof typeof ERROR_STATUS;
+
+export type ErrorBody = { error: { code: ErrorCode; message: string; fields?: Record<string, string[]> } };
+
+export class ApiError extends Error {
+  constructor(
+    public readonly code: ErrorCode,
+    message: string,
+    public readonly fields?: Record<string, string[]>,
+  ) {
+    super(message);
+    this.name = "ApiError";
+  }
+  get status(): number {
+    return ERROR_STATUS[this.code];
+  }
+}
+
+export const notFound = (what = "Not found") => new ApiError("not_found", what);
+
+export function fieldErrors(err: ZodError): Record<string, string[]> {
+  const out: Record<string, string[]> = {};
+  for (const issue of err.issues) {
+    const key = issue.path.length ? issue.path.join(".") : "_";
+    (out[key] ??= []).push(issue.message);
+  }
+  return out;
+}
+
+export function errorBody(err: unknown): { status: number; body: ErrorBody } {
+  if (err instanceof ApiError) {
+    return { status: err.status, body: { error: { code: err.code, message: err.message, ...(err.fields ? { fields: err.fields } : {}) } } };
+  }
+  if (err instanceof ZodError) {
+    return { status: 422, body: { error: { code: "unprocessable", message: "Some fields are not valid", fields: fieldErrors(err) } } };
+  }
+  return { status: 500, body: { error: { code: "internal", message: "Something went wrong on our side. Nothing was saved." } } };
+}
+
+export function errorResponse(err: unknown): Response {
+  const { status, body } = errorBody(err);
+  if (status >= 500) console.error("[cairn] unexpected error:", err);
+  return Response.json(body, { status, headers: { "Cache-Control": "no-store" } });
+}

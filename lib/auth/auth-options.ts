@@ -1,0 +1,88 @@
+// next-auth configuration: e-mail + password, and e-mail sign-in links through our mail transport.
+// The JWT carries only the user id and the active organisation; role is read from the database
+// on every request so a changed or removed membership takes effect at once.
+import type { NextAuthOptions } from "next-auth";
+import CredentialsProvider from "next-auth/providers/credentials";
+import EmailProvider from "next-auth/providers/email";
+import { asc, eq } from "drizzle-orm";
+import { z } from "zod";
+import { db } from "@/db/client";
+import { memberships, users } from "@/db/schema";
+import { env } from "@/lib/config/env";
+import { verifyPassword } from "./password";
+import { hit, reset, SIGN_IN_LIMITS } from "./rate-limit";
+import { composeMail, sendMail } from "@/lib/mail/send-mail";
+import { cairnAdapter } from "./adapter";
+
+const credentialsSchema = z.object({ email: z.string().trim().toLowerCase().email().max(320), password: z.string().min(1).max(200) });
+
+function clientAddress(headers: Record<string, unknown> | undefined): string {
+  const fwd = headers?.["x-forwarded-for"];
+  return (typeof fwd === "string" && fwd.split(",")[0].trim()) || "local";
+}
+
+async function firstOrganisationOf(userId: string): Promise<string | null> {
+  const [m] = await db()
+    .select({ organisationId: memberships.organisationId })
+    .from(memberships)
+    .where(eq(memberships.userId, userId))
+    .orderBy(asc(memberships.createdAt))
+    .limit(1);
+  return m?.organisationId ?? null;
+}
+
+export const authOptions: NextAuthOptions = {
+  secret: env().NEXTAUTH_SECRET,
+  session: { strategy: "jwt", maxAge: 12 * 3600 }, // 12 h: one working day
+  pages: { signIn: "/sign-in", verifyRequest: "/sign-in/check-mail", error: "/sign-in" },
+  adapter: cairnAdapter(), // e-mail links need the verification-token methods
+  providers: [
+    CredentialsProvider({
+      id: "password",
+      name: "E-mail and password",
+      credentials: { email: { type: "email" }, password: { type: "password" } },
+      async authorize(raw, req) {
+        const parsed = credentialsSchema.safeParse(raw);
+        if (!parsed.success) return null;
+        const { email, password } = parsed.data;
+        const addressOk = await hit("signin-addr", clientAddress(req?.headers), SIGN_IN_LIMITS.perAddress);
+        const accountOk = await hit("signin-acct", email, SIGN_IN_LIMITS.perAccount);
+        const [u] = await db().select().from(users).where(eq(users.email, email));
+        const ok = await verifyPassword(password, u?.passwordHash);
+        // over the limit: refuse even a right password, with the same answer as a wrong one
+        if (!addressOk || !accountOk || !u || !ok) return null;
+        await reset("signin-acct", email);
+        return { id: u.id, email: u.email, name: u.name };
+      },
+    }),
+    EmailProvider({
+      server: env().SMTP_URL,
+      from: env().MAIL_FROM,
+      maxAge: 15 * 60, // 15 min link lifetime
+      async sendVerificationRequest({ identifier, url }) {
+        const email = identifier.toLowerCase();
+        const allowed = await hit("signin-link", email, SIGN_IN_LIMITS.perAccount);
+        const [u] = await db().select({ id: users.id }).from(users).where(eq(users.email, email));
+        // unknown addresses and over-limit accounts get the same answer and no mail
+        if (!u || !allowed) return;
+        const body = composeMail(
+          ["Someone asked to sign in to Cairn with this address. The link works once, for 15 minutes.", "If it was not you, ignore this message."],
+          { label: "Sign in to Cairn", url },
+        );
+        await sendMail({ to: email, subject: "Your Cairn sign-in link", ...body });
+      },
+    }),
+  ],
+  callbacks: {
+    async jwt({ token, user }) {
+      if (user) {
+        token.uid = user.id;
+        token.org = await firstOrganisationOf(user.id);
+      }
+      return token;
+    },
+    async session({ session, token }) {
+      return { ...session, user: { ...session.user, id: token.uid as string, organisationId: token.org as string | null } };
+    },
+  },
+};

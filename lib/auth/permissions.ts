@@ -1,0 +1,71 @@
+// Roles map to permissions in one flat table. Every route handler and server action names the
+// permission it needs; nothing else decides access (DESIGN.md, "Rules of the house").
+import type { Role } from "@/db/schema/types";
+
+export const PERMISSIONS = [
+  "workspace.read",
+  "clients.write",
+  "sites.write",
+  "jobs.write",
+  "flights.write",
+  "members.manage",
+  "recordings.upload",
+  "recordings.read",
+  "recordings.tag",
+  "recordings.reprocess",
+  "recordings.order",
+  "recordings.delete",
+  "originals.download",
+  "findings.read",
+  "findings.write",
+  "reports.build",
+  "reports.approve",
+  "shares.manage",
+  "custody.read",
+  "holds.manage",
+  "rangechecks.write",
+  "settings.manage",
+] as const;
+export type Permission = (typeof PERMISSIONS)[number];
+
+const ALL = new Set<Permission>(PERMISSIONS);
+
+// client accounts are optional and read-only: they see what was shared through the workspace too
+export const ROLE_PERMISSIONS: Record<Role, ReadonlySet<Permission>> = {
+  owner: ALL,
+  pilot: new Set<Permission>([
+    "workspace.read",
+    "flights.write",
+    "recordings.upload",
+    "recordings.read",
+    "recordings.tag",
+    "recordings.reprocess",
+    "recordings.order",
+    "originals.download",
+    "findings.read",
+    "custody.read",
+    "rangechecks.write",
+  ]),
+  reviewer: new Set<Permission>([
+    "workspace.read",
+    "recordings.read",
+    "recordings.tag",
+    "originals.download",
+    "findings.read",
+    "findings.write",
+    "reports.build",
+    "custody.read",
+  ]),
+  client: new Set<Permission>(["workspace.read", "recordings.read", "findings.read"]),
+};
+
+export function can(role: Role, permission: Permission): boolean {
+  return ROLE_PERMISSIONS[role].has(permission);
+}
+
+export const ROLE_LABELS: Record<Role, { label: string; meaning: string }> = {
+  owner: { label: "Owner", meaning: "Sets up clients, sites and jobs, manages the crew, sharing, holds and retention." },
+  pilot: { label: "Pilot", meaning: "Uploads recordings, logs flights and range checks." },
+  reviewer: { label: "Reviewer", meaning: "Watches recordings, marks findings and builds reports." },
+  client: { label: "Client", meaning: "Read-only access to the organisation's workspace lists." },
+};
