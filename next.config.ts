@@ -2,6 +2,8 @@ import type { NextConfig } from "next";
 
 const config: NextConfig = {
   reactStrictMode: true,
+  // parallel test runs build into folders of their own (tests/support/test-env.ts)
+  distDir: process.env.NEXT_DIST_DIR || ".next",
   poweredByHeader: false,
   // worker-side and native-ish packages stay as Node requires, not bundled
   serverExternalPackages: ["@tus/server", "@tus/file-store", "bullmq", "ioredis", "fluent-ffmpeg", "postgres", "bcryptjs", "nodemailer", "@react-pdf/renderer"],

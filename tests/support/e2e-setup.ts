@@ -22,10 +22,10 @@ async function waitFor(url: string, ms: number) {
 }
 
 export default async function setup() {
-  if (!existsSync(path.join(root, ".next/BUILD_ID"))) throw new Error("build the app first: npx next build");
+  if (!existsSync(path.join(root, TEST_ENV.NEXT_DIST_DIR, "BUILD_ID"))) throw new Error(`build the app first: NEXT_DIST_DIR=${TEST_ENV.NEXT_DIST_DIR} npx next build`);
   mkdirSync(path.join(root, ".data/logs"), { recursive: true });
   const env = { ...process.env, ...TEST_ENV, PORT: String(E2E_PORT) };
-  const out = (name: string) => openSync(path.join(root, `.data/logs/e2e-${name}.log`), "w");
+  const out = (name: string) => openSync(path.join(root, `.data/logs/e2e-${TEST_ENV.NEXT_DIST_DIR.replace(/^\./, "")}-${name}.log`), "w");
   web = spawn(path.join(root, "node_modules/.bin/next"), ["start", "-p", String(E2E_PORT), "-H", "127.0.0.1"], { cwd: root, env, stdio: ["ignore", out("web"), out("web-err")] });
   worker = spawn(path.join(root, "node_modules/.bin/tsx"), ["worker/main.ts"], { cwd: root, env, stdio: ["ignore", out("worker"), out("worker-err")] });
   await waitFor(`http://127.0.0.1:${E2E_PORT}/sign-in`, 60_000);

@@ -7,6 +7,12 @@ import { TEST_ENV } from "./test-env";
 
 export default async function setup() {
   Object.assign(process.env, TEST_ENV);
+  // the test database is created on first use (a parallel test slot has its own)
+  const server = postgres(TEST_ENV.MIGRATION_DATABASE_URL.replace(/\/[^/]+$/, "/postgres"), { max: 1, onnotice: () => {} });
+  const name = new URL(TEST_ENV.MIGRATION_DATABASE_URL).pathname.slice(1);
+  const [exists] = await server`select 1 from pg_database where datname = ${name}`;
+  if (!exists) await server.unsafe(`CREATE DATABASE "${name}"`);
+  await server.end();
   const admin = postgres(TEST_ENV.MIGRATION_DATABASE_URL, { max: 1, onnotice: () => {} });
   await admin.unsafe("DROP SCHEMA IF EXISTS drizzle CASCADE; DROP SCHEMA IF EXISTS public CASCADE; CREATE SCHEMA public;");
   await admin.end();
