@@ -30,6 +30,8 @@ export interface MakeH264Options {
   bsf?: string;
   /** Sample aspect ratio, e.g. "12/11" (ffmpeg setsar). */
   sar?: string;
+  /** x264 preset; "veryfast" keeps large test pictures quick to encode. Default x264's own (medium). */
+  preset?: string;
   /** Folder for the result; default a cache folder under the OS temp folder. */
   dir?: string;
 }
@@ -74,6 +76,7 @@ export async function makeRawH264(options: MakeH264Options = {}): Promise<string
     x264Params: options.x264Params ?? "",
     bsf: options.bsf ?? "",
     sar: options.sar ?? "",
+    preset: options.preset ?? "",
   };
   const dir = options.dir ?? MEDIA_CACHE_DIR;
   await mkdir(dir, { recursive: true });
@@ -85,7 +88,8 @@ export async function makeRawH264(options: MakeH264Options = {}): Promise<string
     // not made yet
   }
   const { pixFmt, profile } = PIXEL_FORMATS[o.profile];
-  const filters = [`format=${pixFmt}`];
+  // Some lavfi sources round odd sizes to even ones: scale to the exact size asked for.
+  const filters = [`scale=${o.width}:${o.height}`, `format=${pixFmt}`];
   if (o.sar) filters.push(`setsar=${o.sar}`);
   const args = [
     "-v", "error", "-y",
@@ -98,6 +102,7 @@ export async function makeRawH264(options: MakeH264Options = {}): Promise<string
     "-g", String(o.gop),
     "-bf", String(o.profile === "baseline" ? 0 : o.bframes),
   ];
+  if (o.preset) args.push("-preset", o.preset);
   if (o.x264Params) args.push("-x264-params", o.x264Params);
   if (o.bsf) args.push("-bsf:v", o.bsf);
   const partial = `${out}.${process.pid}.part`;
