@@ -1,5 +1,6 @@
 "use client";
 import { useState } from "react";
+import Link from "next/link";
 import { useForm } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import type { ColumnDef } from "@tanstack/react-table";
@@ -21,7 +22,17 @@ export function ClientsView({ canWrite }: { canWrite: boolean }) {
     { id: "name", header: "Client", accessorKey: "name", cell: (c) => <span className="font-medium">{c.row.original.name}</span> },
     { id: "contactName", header: "Contact", accessorKey: "contactName", cell: (c) => c.row.original.contactName ?? "—" },
     { id: "contactEmail", header: "E-mail", accessorKey: "contactEmail", enableSorting: false, cell: (c) => c.row.original.contactEmail ?? "—" },
-    { id: "siteCount", header: "Sites", accessorKey: "siteCount", enableSorting: false },
+    {
+      id: "siteCount",
+      header: "Sites",
+      accessorKey: "siteCount",
+      enableSorting: false,
+      cell: (c) => (
+        <Link className="text-lake underline" href={`/sites?clientId=${c.row.original.id}`} aria-label={`${c.row.original.siteCount} sites of ${c.row.original.name}`}>
+          {c.row.original.siteCount}
+        </Link>
+      ),
+    },
     ...(canWrite
       ? [{ id: "actions", header: "", enableSorting: false, cell: (c: { row: { original: ClientRow } }) => (
           <button type="button" className="text-lake underline" onClick={() => setEditing(c.row.original)}>

@@ -55,7 +55,7 @@ export function idParam(value: string | string[] | undefined, what = "Not found"
 
 /** Reads list query parameters (search, sort, page) with bounds. */
 export const listQuery = z.object({
-  q: z.string().max(200).optional(),
+  q: z.string().max(200).refine((s) => !s.includes("\u0000"), "Search text cannot contain NUL").optional(),
   page: z.coerce.number().int().min(1).max(100000).default(1),
   pageSize: z.coerce.number().int().min(1).max(200).default(25),
   sort: z.string().max(40).optional(),

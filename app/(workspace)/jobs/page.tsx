@@ -1,4 +1,15 @@
+import { Suspense } from "react";
+import { pageMember } from "@/lib/auth/page-member";
+import { can } from "@/lib/auth/permissions";
+import { JobsView } from "@/components/work/jobs-view";
+
 export const metadata = { title: "Jobs" };
-export default function JobsPage() {
-  return <h1 className="text-2xl font-semibold">Jobs</h1>;
+
+export default async function JobsPage() {
+  const member = await pageMember();
+  return (
+    <Suspense>
+      <JobsView canWrite={can(member.role, "jobs.write")} me={{ userId: member.userId, role: member.role }} />
+    </Suspense>
+  );
 }

@@ -1,0 +1,13 @@
+// GET /api/sites: list the organisation's sites (?clientId=, ?assetKind=); POST /api/sites: create one
+import { withOrg, readJson, parseQuery, created, ok } from "@/lib/api/with-org";
+import { siteInput } from "@/lib/validation/work";
+import { siteListQuery } from "@/lib/validation/list-filters";
+import { createSite, listSites } from "@/lib/work/sites";
+
+export const GET = withOrg({ permission: "workspace.read" }, async ({ req, member }) =>
+  ok(await listSites(member.organisationId, parseQuery(req, siteListQuery))),
+);
+
+export const POST = withOrg({ permission: "sites.write" }, async ({ req, member }) =>
+  created(await createSite(member.organisationId, await readJson(req, siteInput))),
+);

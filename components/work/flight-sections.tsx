@@ -1,0 +1,10 @@
+// The sections that later parts of Cairn add to a flight's page after its facts: the flight's
+// recordings (and their flight timeline) and its range checks. Same contract as job-sections.tsx.
+import type { ComponentType } from "react";
+import type { FlightDetail } from "@/lib/work/flights";
+import type { Member } from "@/lib/auth/load-member";
+
+export type FlightSectionProps = { flight: FlightDetail; viewer: Member };
+export type FlightSection = { id: string; title: string; Component: ComponentType<FlightSectionProps> };
+
+export const FLIGHT_SECTIONS: FlightSection[] = [];
