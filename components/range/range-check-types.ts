@@ -1,0 +1,45 @@
+// Shapes of the range-check API's answers as the browser receives them (dates as ISO text).
+import type { LinkEvent } from "@/lib/range/link-events";
+
+export type RangeCheckRow = {
+  id: string;
+  flightId: string;
+  recordingId: string | null;
+  recordingName: string | null;
+  flownOn: string;
+  event: LinkEvent;
+  atSec: number | null;
+  latitude: number | null;
+  longitude: number | null;
+  groundDistanceM: number;
+  bearingDeg: number | null;
+  heightAglM: number;
+  slantRangeM: number;
+  antennaOrientation: string | null;
+  cameraOrientation: string | null;
+  aircraft: string | null;
+  firmware: string | null;
+  notes: string | null;
+  archivedAt: string | null;
+  createdAt: string;
+};
+
+export type TraceEventItem = {
+  intervalIndex: number;
+  event: LinkEvent;
+  atSec: number;
+  atFrame: number;
+  state: "intact" | "damaged" | "lost";
+  durationSec: number;
+  recordingId: string;
+  recordingName: string;
+  sequenceIndex: number;
+  rangeCheckId: string | null;
+};
+
+export type TraceEventsAnswer = {
+  items: TraceEventItem[];
+  total: number;
+  tracedRecordings: number;
+  prefill: { heightAglM: number | null; aircraft: string | null; hasLaunchPoint: boolean };
+};

@@ -1,0 +1,61 @@
+// Every active range check of one flight (or of all flights) with the names around it: what the CSV
+// export and the comparison chart read. Archived checks are left out of both.
+import { and, asc, desc, eq, sql } from "drizzle-orm";
+import { db } from "@/db/client";
+import { flights, jobs, rangeChecks, recordings, sites } from "@/db/schema";
+import type { RangeCheckExportRow } from "./build-range-checks-csv";
+import type { ChartInputRow } from "./aggregate-range-chart";
+import { getRangeCheckFlightOrThrow } from "./flight-for-range-check";
+import { activeRangeChecksOf } from "./range-checks";
+
+export async function loadRangeCheckExportRows(orgId: string, flightId?: string): Promise<RangeCheckExportRow[]> {
+  if (flightId) await getRangeCheckFlightOrThrow(orgId, flightId);
+  return db()
+    .select({
+      id: rangeChecks.id,
+      flownOn: flights.flownOn,
+      jobTitle: jobs.title,
+      siteName: sites.name,
+      flightAircraft: flights.aircraft,
+      recordingName: recordings.originalName,
+      event: rangeChecks.event,
+      atSec: rangeChecks.atSec,
+      latitude: rangeChecks.latitude,
+      longitude: rangeChecks.longitude,
+      groundDistanceM: rangeChecks.groundDistanceM,
+      bearingDeg: rangeChecks.bearingDeg,
+      heightAglM: rangeChecks.heightAglM,
+      slantRangeM: rangeChecks.slantRangeM,
+      antennaOrientation: rangeChecks.antennaOrientation,
+      cameraOrientation: rangeChecks.cameraOrientation,
+      aircraft: rangeChecks.aircraft,
+      firmware: rangeChecks.firmware,
+      notes: rangeChecks.notes,
+      createdAt: rangeChecks.createdAt,
+    })
+    .from(rangeChecks)
+    .innerJoin(flights, and(eq(flights.id, rangeChecks.flightId), eq(flights.organisationId, orgId)))
+    .innerJoin(jobs, and(eq(jobs.id, flights.jobId), eq(jobs.organisationId, orgId)))
+    .innerJoin(sites, and(eq(sites.id, jobs.siteId), eq(sites.organisationId, orgId)))
+    .leftJoin(recordings, and(eq(recordings.id, rangeChecks.recordingId), eq(recordings.organisationId, orgId)))
+    .where(activeRangeChecksOf(orgId, flightId))
+    .orderBy(desc(flights.flownOn), asc(flights.id), asc(rangeChecks.atSec), asc(rangeChecks.createdAt));
+}
+
+/** The chart compares setups, so a check without its own aircraft counts under the flight's. */
+export async function loadRangeChartRows(orgId: string, flightId?: string): Promise<ChartInputRow[]> {
+  if (flightId) await getRangeCheckFlightOrThrow(orgId, flightId);
+  return db()
+    .select({
+      id: rangeChecks.id,
+      event: rangeChecks.event,
+      slantRangeM: rangeChecks.slantRangeM,
+      cameraOrientation: rangeChecks.cameraOrientation,
+      antennaOrientation: rangeChecks.antennaOrientation,
+      aircraft: sql<string | null>`coalesce(${rangeChecks.aircraft}, ${flights.aircraft})`,
+    })
+    .from(rangeChecks)
+    .innerJoin(flights, and(eq(flights.id, rangeChecks.flightId), eq(flights.organisationId, orgId)))
+    .where(activeRangeChecksOf(orgId, flightId))
+    .orderBy(asc(rangeChecks.createdAt));
+}

@@ -1,0 +1,192 @@
+// Range checks of the organisation's flights: list, read, create, edit, archive. The slant range and
+// the derived half of the position are always computed here, on the server, from the stored inputs.
+import { and, asc, desc, eq, isNull, type SQL } from "drizzle-orm";
+import { db } from "@/db/client";
+import { flights, rangeChecks, recordings } from "@/db/schema";
+import { ApiError, notFound } from "@/lib/api/errors";
+import { listOrder, listWhere, pageOf, totalCount, type ListParams } from "@/lib/api/list";
+import type { Member } from "@/lib/auth/load-member";
+import { GeoInputError, fromMetres } from "@/lib/geo";
+import { rangeCheckValuesInput, type DisplayUnits, type RangeCheckCreateInput, type RangeCheckPatchInput, type RangeCheckValues } from "@/lib/validation/range-checks";
+import { computeRangeCheckFigures, type RangeCheckFigures } from "./compute-range-check";
+import { getRangeCheckFlightOrThrow, requireRecordingOfFlight, type RangeCheckFlight } from "./flight-for-range-check";
+
+export const rangeCheckColumns = {
+  id: rangeChecks.id,
+  flightId: rangeChecks.flightId,
+  recordingId: rangeChecks.recordingId,
+  recordingName: recordings.originalName,
+  flownOn: flights.flownOn,
+  event: rangeChecks.event,
+  atSec: rangeChecks.atSec,
+  latitude: rangeChecks.latitude,
+  longitude: rangeChecks.longitude,
+  groundDistanceM: rangeChecks.groundDistanceM,
+  bearingDeg: rangeChecks.bearingDeg,
+  heightAglM: rangeChecks.heightAglM,
+  slantRangeM: rangeChecks.slantRangeM,
+  antennaOrientation: rangeChecks.antennaOrientation,
+  cameraOrientation: rangeChecks.cameraOrientation,
+  aircraft: rangeChecks.aircraft,
+  firmware: rangeChecks.firmware,
+  notes: rangeChecks.notes,
+  archivedAt: rangeChecks.archivedAt,
+  createdAt: rangeChecks.createdAt,
+  updatedAt: rangeChecks.updatedAt,
+};
+
+function selectRangeChecks() {
+  return db()
+    .select(rangeCheckColumns)
+    .from(rangeChecks)
+    .innerJoin(flights, and(eq(flights.id, rangeChecks.flightId), eq(flights.organisationId, rangeChecks.organisationId)))
+    .leftJoin(recordings, and(eq(recordings.id, rangeChecks.recordingId), eq(recordings.organisationId, rangeChecks.organisationId)));
+}
+
+export type RangeCheckListParams = ListParams & { flightId?: string };
+
+export async function listRangeChecks(orgId: string, params: RangeCheckListParams) {
+  // a flight of another organisation answers 404, like any of its records
+  if (params.flightId) await getRangeCheckFlightOrThrow(orgId, params.flightId);
+  const rows = await db()
+    .select({ ...rangeCheckColumns, total: totalCount })
+    .from(rangeChecks)
+    .innerJoin(flights, and(eq(flights.id, rangeChecks.flightId), eq(flights.organisationId, rangeChecks.organisationId)))
+    .leftJoin(recordings, and(eq(recordings.id, rangeChecks.recordingId), eq(recordings.organisationId, rangeChecks.organisationId)))
+    .where(
+      listWhere({
+        orgFilter: eq(rangeChecks.organisationId, orgId),
+        params,
+        searchColumns: [rangeChecks.notes, rangeChecks.aircraft, rangeChecks.antennaOrientation, rangeChecks.cameraOrientation, rangeChecks.firmware],
+        archivedColumn: rangeChecks.archivedAt,
+        extra: [params.flightId ? eq(rangeChecks.flightId, params.flightId) : undefined],
+      }),
+    )
+    .orderBy(
+      ...listOrder(
+        params,
+        {
+          atSec: rangeChecks.atSec,
+          event: rangeChecks.event,
+          groundDistanceM: rangeChecks.groundDistanceM,
+          heightAglM: rangeChecks.heightAglM,
+          slantRangeM: rangeChecks.slantRangeM,
+          flownOn: flights.flownOn,
+          createdAt: rangeChecks.createdAt,
+        },
+        desc(flights.flownOn),
+      ),
+      asc(rangeChecks.atSec),
+      asc(rangeChecks.createdAt),
+    )
+    .limit(pageOf(params).limit)
+    .offset(pageOf(params).offset);
+  return { items: rows.map(({ total: _t, ...r }) => r), total: rows[0]?.total ?? 0 };
+}
+
+export async function getRangeCheckOrThrow(orgId: string, id: string) {
+  const [row] = await selectRangeChecks().where(and(eq(rangeChecks.id, id), eq(rangeChecks.organisationId, orgId)));
+  if (!row) throw notFound("Range check not found");
+  return row;
+}
+
+/** A refusal from the geodesy (no launch point, a bad number) becomes a 422 on the field that caused it. */
+export function figuresOrFieldError(flight: RangeCheckFlight, values: Pick<RangeCheckValues, "position" | "heightAglM">): RangeCheckFigures {
+  try {
+    return computeRangeCheckFigures(flight.launch, values.position, values.heightAglM);
+  } catch (err) {
+    if (err instanceof GeoInputError) throw new ApiError("unprocessable", "Some fields are not valid", { [err.field]: [err.message] });
+    throw err;
+  }
+}
+
+function rowValues(values: Omit<RangeCheckValues, "position" | "heightAglM">, figures: RangeCheckFigures) {
+  return {
+    event: values.event,
+    atSec: values.atSec,
+    recordingId: values.recordingId,
+    ...figures,
+    antennaOrientation: values.antennaOrientation,
+    cameraOrientation: values.cameraOrientation,
+    aircraft: values.aircraft,
+    firmware: values.firmware,
+    notes: values.notes,
+  };
+}
+
+export async function createRangeCheck(member: Member, input: RangeCheckCreateInput) {
+  const orgId = member.organisationId;
+  const flight = await getRangeCheckFlightOrThrow(orgId, input.flightId);
+  if (input.recordingId) await requireRecordingOfFlight(orgId, flight.id, input.recordingId);
+  const figures = figuresOrFieldError(flight, input);
+  const [row] = await db()
+    .insert(rangeChecks)
+    .values({ organisationId: orgId, flightId: flight.id, createdBy: member.userId, ...rowValues(input, figures) })
+    .returning({ id: rangeChecks.id });
+  return getRangeCheckOrThrow(orgId, row.id);
+}
+
+/** A number in the unit the patch speaks, so stored metres merge with typed feet without a unit mix-up. */
+const inUnits = (metres: number | null, units: DisplayUnits) => (metres === null ? null : fromMetres(metres, units));
+
+/**
+ * PATCH merges the given fields over the stored ones and checks the result as a whole: a change of
+ * height alone recomputes the slant range from the stored distance, a change of position recomputes
+ * the other half of the position from the flight's launch point.
+ */
+export async function updateRangeCheck(member: Member, id: string, patch: RangeCheckPatchInput) {
+  const orgId = member.organisationId;
+  const [stored] = await db().select().from(rangeChecks).where(and(eq(rangeChecks.id, id), eq(rangeChecks.organisationId, orgId), isNull(rangeChecks.archivedAt)));
+  if (!stored) throw notFound("Range check not found");
+  const units = patch.units ?? "m";
+  // a patch that moves the position says how by the fields it sends, even without positionBy
+  const sendsCoordinates = patch.latitude !== undefined || patch.longitude !== undefined;
+  const sendsDistance = patch.groundDistance !== undefined || patch.bearingDeg !== undefined;
+  if (!patch.positionBy && sendsCoordinates && sendsDistance) {
+    throw new ApiError("unprocessable", "Some fields are not valid", { positionBy: ["Say whether the coordinates or the ground distance and bearing count"] });
+  }
+  const positionBy = patch.positionBy ?? (sendsCoordinates ? "coordinates" : "distance");
+  const merged = {
+    event: stored.event,
+    atSec: stored.atSec,
+    recordingId: stored.recordingId,
+    // unless the patch moves the position, the stored distance and bearing reproduce the stored
+    // coordinates (GeographicLib direct), so "distance" is the neutral way to re-derive them
+    latitude: stored.latitude === null ? null : String(stored.latitude),
+    longitude: stored.longitude === null ? null : String(stored.longitude),
+    groundDistance: inUnits(stored.groundDistanceM, units),
+    bearingDeg: stored.bearingDeg,
+    heightAgl: inUnits(stored.heightAglM, units),
+    antennaOrientation: stored.antennaOrientation,
+    cameraOrientation: stored.cameraOrientation,
+    aircraft: stored.aircraft,
+    firmware: stored.firmware,
+    notes: stored.notes,
+    ...patch,
+    positionBy,
+    units,
+  };
+  const values = rangeCheckValuesInput.parse(merged);
+  const flight = await getRangeCheckFlightOrThrow(orgId, stored.flightId);
+  if (values.recordingId && values.recordingId !== stored.recordingId) await requireRecordingOfFlight(orgId, flight.id, values.recordingId);
+  const figures = figuresOrFieldError(flight, values);
+  await db()
+    .update(rangeChecks)
+    .set({ ...rowValues(values, figures), updatedAt: new Date() })
+    .where(and(eq(rangeChecks.id, id), eq(rangeChecks.organisationId, orgId)));
+  return getRangeCheckOrThrow(orgId, id);
+}
+
+/** DELETE archives: the row stays for the record but leaves lists, charts and exports. */
+export async function archiveRangeCheck(orgId: string, id: string) {
+  const [row] = await db()
+    .update(rangeChecks)
+    .set({ archivedAt: new Date(), updatedAt: new Date() })
+    .where(and(eq(rangeChecks.id, id), eq(rangeChecks.organisationId, orgId), isNull(rangeChecks.archivedAt)))
+    .returning({ id: rangeChecks.id, archivedAt: rangeChecks.archivedAt });
+  if (!row) throw notFound("Range check not found");
+  return row;
+}
+
+export const activeRangeChecksOf = (orgId: string, flightId?: string): SQL =>
+  and(eq(rangeChecks.organisationId, orgId), isNull(rangeChecks.archivedAt), flightId ? eq(rangeChecks.flightId, flightId) : undefined)!;
