@@ -4,6 +4,7 @@ import type { Db } from "@/db/client";
 import * as s from "@/db/schema";
 import { hashPassword } from "@/lib/auth/password";
 import { DEFAULT_CATEGORIES } from "@/lib/findings/default-categories";
+import { demoRangeChecks } from "@/lib/range/demo-range-checks";
 import { DEMO_CLIENTS, DEMO_FLIGHTS, DEMO_JOBS, DEMO_ORG, DEMO_PASSWORD, DEMO_SITES, DEMO_USERS, OTHER_ORG, OTHER_USER } from "./demo-scenario";
 
 const day = 24 * 3600 * 1000;
@@ -51,8 +52,9 @@ export async function seedDemo(database: Db): Promise<{ created: boolean; organi
         .returning();
       jobIds[j.key] = row.id;
     }
+    const flightIds: Record<string, string> = {};
     for (const f of DEMO_FLIGHTS) {
-      await tx.insert(s.flights).values({
+      const [flight] = await tx.insert(s.flights).values({
         organisationId: org.id,
         jobId: jobIds[f.job],
         flownOn: isoDay(-f.daysAgo),
@@ -62,8 +64,10 @@ export async function seedDemo(database: Db): Promise<{ created: boolean; organi
         launchLatitude: f.launch[0],
         launchLongitude: f.launch[1],
         notes: f.notes || null,
-      });
+      }).returning();
+      flightIds[f.key] = flight.id;
     }
+    await tx.insert(s.rangeChecks).values(demoRangeChecks(org.id, flightIds, userIds.pilot));
     await tx.insert(s.findingCategories).values(DEFAULT_CATEGORIES.map((c) => ({ ...c, organisationId: org.id })));
 
     const [other] = await tx.insert(s.organisations).values(OTHER_ORG).returning();
