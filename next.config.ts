@@ -18,6 +18,16 @@ const config: NextConfig = {
           { key: "X-Frame-Options", value: "SAMEORIGIN" },
         ],
       },
+      // share links (capability URLs): never sent on as a Referer, cached or indexed; listed after
+      // the catch-all so its Referrer-Policy wins (lib/sharing/share-response-headers.ts)
+      {
+        source: "/s/:path*",
+        headers: [
+          { key: "Referrer-Policy", value: "no-referrer" },
+          { key: "Cache-Control", value: "no-store" },
+          { key: "X-Robots-Tag", value: "noindex, nofollow" },
+        ],
+      },
     ];
   },
 };

@@ -1,0 +1,16 @@
+// GET /api/jobs/:id/hold: whether the job is under legal hold; PUT: set (with a reason) or release it
+import { z } from "zod";
+import { withOrg, readJson, idParam, ok } from "@/lib/api/with-org";
+import { requestFacts } from "@/lib/custody/record-custody-event";
+import { getLegalHold, setLegalHold } from "@/lib/custody/set-legal-hold";
+
+type P = { id: string };
+const input = z.object({ hold: z.boolean(), reason: z.string().trim().max(500).nullish() }).strict();
+
+export const GET = withOrg<P>({ permission: "workspace.read" }, async ({ params, member }) =>
+  ok(await getLegalHold(member.organisationId, idParam(params.id, "Job not found"))),
+);
+
+export const PUT = withOrg<P>({ permission: "holds.manage" }, async ({ req, params, member }) =>
+  ok(await setLegalHold(member, idParam(params.id, "Job not found"), await readJson(req, input), requestFacts(req))),
+);

@@ -1,0 +1,21 @@
+// GET /api/share-links?jobId=: a job's share links with opens and downloads; POST: create one
+// (the response carries the link's address once: Cairn keeps only its hash)
+import { z } from "zod";
+import { withOrg, readJson, parseQuery, created, ok } from "@/lib/api/with-org";
+import { requestFacts } from "@/lib/custody/record-custody-event";
+import { shareLinkInput } from "@/lib/sharing/share-link-input";
+import { createShareLink } from "@/lib/sharing/create-share-link";
+import { listJobShareLinks } from "@/lib/sharing/list-share-links";
+import { ApiError } from "@/lib/api/errors";
+
+const query = z.object({ jobId: z.string().optional() });
+
+export const GET = withOrg({ permission: "shares.manage" }, async ({ req, member }) => {
+  const { jobId } = parseQuery(req, query);
+  if (!jobId || !z.string().uuid().safeParse(jobId).success) throw new ApiError("not_found", "Job not found");
+  return ok(await listJobShareLinks(member.organisationId, jobId));
+});
+
+export const POST = withOrg({ permission: "shares.manage" }, async ({ req, member }) =>
+  created(await createShareLink(member, await readJson(req, shareLinkInput), requestFacts(req))),
+);

@@ -1,0 +1,100 @@
+"use client";
+// A plain, read-only video.js player for the client's page. Created in an effect and disposed on
+// cleanup (video.js breaks under StrictMode's double mount otherwise: STACK-NOTES.md). A new source
+// (another recording, or a fresh signed address after the old one expired) keeps the position.
+import { forwardRef, useEffect, useImperativeHandle, useRef } from "react";
+import videojs from "video.js";
+import "video.js/dist/video-js.css";
+
+type Player = ReturnType<typeof videojs>;
+
+export type SharePlayerHandle = { seek: (seconds: number) => void };
+
+type Props = {
+  src: string;
+  poster: string | null;
+  thumbnails: string | null;
+  label: string;
+  /** where to start once the clip has loaded (a jump to a finding in another recording) */
+  startAt?: number;
+  onTime?: (seconds: number) => void;
+  onDuration?: (seconds: number) => void;
+  /** the source failed to load (an expired address, a revoked link): the page fetches fresh addresses */
+  onSourceError?: () => void;
+};
+
+export const SharePlayer = forwardRef<SharePlayerHandle, Props>(function SharePlayer({ src, poster, thumbnails, label, startAt, onTime, onDuration, onSourceError }, ref) {
+  const holder = useRef<HTMLDivElement>(null);
+  const player = useRef<Player | null>(null);
+  const callbacks = useRef({ onTime, onDuration, onSourceError });
+  callbacks.current = { onTime, onDuration, onSourceError };
+  const lastTime = useRef(0);
+  const currentSrc = useRef(src);
+
+  useEffect(() => {
+    const el = document.createElement("video-js");
+    el.setAttribute("data-testid", "share-video");
+    el.setAttribute("aria-label", label);
+    holder.current?.appendChild(el);
+    const p = videojs(el, {
+      controls: true,
+      fluid: true,
+      preload: "auto",
+      playsinline: true,
+      playbackRates: [0.25, 0.5, 1, 1.5, 2],
+      poster: poster ?? undefined,
+      sources: [{ src: currentSrc.current, type: "video/mp4" }],
+    });
+    p.on("timeupdate", () => {
+      const t = p.currentTime() ?? 0;
+      lastTime.current = t;
+      callbacks.current.onTime?.(t);
+    });
+    p.on("loadedmetadata", () => callbacks.current.onDuration?.(p.duration() ?? 0));
+    if (startAt) p.one("loadedmetadata", () => p.currentTime(startAt));
+    p.on("error", () => callbacks.current.onSourceError?.());
+    player.current = p;
+    return () => {
+      p.dispose();
+      player.current = null;
+    };
+    // the player is built once per mount; sources change through the effect below
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, []);
+
+  useEffect(() => {
+    const p = player.current;
+    if (!p || src === currentSrc.current) return;
+    // only a failed source is swapped mid-play; a fresh address for a working source waits
+    if (!p.error()) {
+      currentSrc.current = src;
+      return;
+    }
+    currentSrc.current = src;
+    const resumeAt = lastTime.current;
+    p.error(null);
+    p.src({ src, type: "video/mp4" });
+    p.one("loadedmetadata", () => p.currentTime(resumeAt));
+  }, [src]);
+
+  useEffect(() => {
+    const p = player.current;
+    if (!p || !thumbnails) return;
+    const track = p.addRemoteTextTrack({ kind: "metadata", label: "thumbnails", src: thumbnails }, false);
+    return () => {
+      if (player.current) p.removeRemoteTextTrack(track as unknown as TextTrack);
+    };
+  }, [thumbnails]);
+
+  useImperativeHandle(ref, () => ({
+    seek(seconds: number) {
+      const p = player.current;
+      if (!p) return;
+      p.currentTime(seconds);
+      lastTime.current = seconds;
+      callbacks.current.onTime?.(seconds);
+    },
+  }));
+
+  return <div ref={holder} data-vjs-player className="overflow-hidden rounded-md border border-line bg-black" />;
+});

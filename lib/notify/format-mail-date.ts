@@ -1,0 +1,5 @@
+// Dates in mail: ISO day and time in UTC, stated as such (LOOK.md: ISO dates; a mail reader's time
+// zone is unknown to us).
+export function formatMailDate(d: Date): string {
+  return `${d.toISOString().slice(0, 16).replace("T", " ")} UTC`;
+}

@@ -1,0 +1,45 @@
+// What an owner fills in to share: scope and its target, expiry, optional passcode, download rights,
+// label and recipients. The scope decides which target field is required.
+import { z } from "zod";
+
+export const SHARE_SCOPES = ["recording", "findings", "report", "job"] as const;
+export type ShareScope = (typeof SHARE_SCOPES)[number];
+
+export const SHARE_SCOPE_LABELS: Record<ShareScope, { label: string; meaning: string }> = {
+  recording: { label: "One recording", meaning: "The clip with all its findings; the report too if you attach one." },
+  findings: { label: "Chosen findings", meaning: "Only the findings you pick and the clips they sit in; the report too if you attach one." },
+  report: { label: "Report version", meaning: "One report PDF, nothing else." },
+  job: { label: "Whole job", meaning: "Every recording and finding of the job and its newest approved report." },
+};
+
+export const MAX_SHARE_DAYS = 90;
+
+const uuid = z.string().uuid();
+
+export const shareLinkInput = z
+  .object({
+    jobId: uuid,
+    scope: z.enum(SHARE_SCOPES),
+    recordingId: uuid.nullish(),
+    findingIds: z.array(uuid).max(200).nullish(),
+    reportId: uuid.nullish(),
+    label: z.string().trim().min(1, "Give the link a label you will recognise").max(120),
+    recipientEmails: z.array(z.string().trim().toLowerCase().email("Not an e-mail address").max(320)).max(20).default([]),
+    expiresInDays: z.coerce.number().int().min(1).max(MAX_SHARE_DAYS).default(14),
+    passcode: z
+      .string()
+      .max(64)
+      .transform((s) => s.trim())
+      .refine((s) => s === "" || s.length >= 6, "A passcode needs at least 6 characters")
+      .nullish(),
+    allowOriginals: z.boolean().default(false),
+    sendMail: z.boolean().default(true),
+  })
+  .strict()
+  .superRefine((v, ctx) => {
+    if (v.scope === "recording" && !v.recordingId) ctx.addIssue({ code: "custom", path: ["recordingId"], message: "Choose the recording to share" });
+    if (v.scope === "findings" && !v.findingIds?.length) ctx.addIssue({ code: "custom", path: ["findingIds"], message: "Choose at least one finding" });
+    if (v.scope === "report" && !v.reportId) ctx.addIssue({ code: "custom", path: ["reportId"], message: "Choose the report version to share" });
+  });
+
+export type ShareLinkInput = z.infer<typeof shareLinkInput>;
