@@ -15,6 +15,7 @@ const NAV: { href: string; label: string; roles?: Role[] }[] = [
   { href: "/clients", label: "Clients" },
   { href: "/sites", label: "Sites" },
   { href: "/range", label: "Range & distance" },
+  { href: "/custody", label: "Custody log", roles: ["owner", "pilot", "reviewer"] },
   { href: "/members", label: "Members", roles: ["owner"] },
 ];
 

@@ -1,12 +1,16 @@
 // The sections that later parts of Cairn add to a job's page, in reading order after the job's
 // flights: its recordings, findings, reports and share links. Each entry is a component (server or
-// client) given the job and the viewer; the page renders each under its own heading. The list is
-// empty until those parts exist, so the page never shows a section with nothing real in it.
+// client) given the job and the viewer; the page renders each under its own heading.
 import type { ComponentType } from "react";
 import type { JobDetail } from "@/lib/work/jobs";
 import type { Member } from "@/lib/auth/load-member";
+import { JobShareLinksSection } from "@/components/sharing/job-share-links-section";
+import { JobCustodySection } from "@/components/custody/job-custody-section";
 
 export type JobSectionProps = { job: JobDetail; viewer: Member };
 export type JobSection = { id: string; title: string; Component: ComponentType<JobSectionProps> };
 
-export const JOB_SECTIONS: JobSection[] = [];
+export const JOB_SECTIONS: JobSection[] = [
+  { id: "share-links", title: "Share links", Component: JobShareLinksSection },
+  { id: "custody", title: "Custody and legal hold", Component: JobCustodySection },
+];
