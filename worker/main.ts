@@ -1,26 +1,29 @@
-// The worker process: connects to Redis, serves the processing queues, shuts down cleanly on SIGTERM.
-import { newRedis } from "@/lib/queue/redis";
+// The worker process: serves every job type from Redis, reconciles the queue with Postgres, and shuts
+// down within a bound on SIGTERM/SIGINT (running jobs return to the queue if they cannot finish).
 import { env } from "@/lib/config/env";
-
-const SHUTDOWN_GRACE_MS = 20_000; // 20 s: bounded, BullMQ's close() alone can wait forever
+import { closeDb } from "@/db/client";
+import { startWorker } from "./start-worker";
+import { workerTimings } from "./worker-options";
 
 async function main() {
-  const connection = newRedis("worker");
-  await connection.ping();
-  console.log(`[worker] ready: Redis ${new URL(env().REDIS_URL).host}, prefix ${env().QUEUE_PREFIX}`);
+  const timings = workerTimings();
+  const running = await startWorker({ timings });
+  console.log(`[worker] ready: Redis ${new URL(env().REDIS_URL).host}, pid ${process.pid}`);
 
   let stopping = false;
   const stop = async (signal: string) => {
     if (stopping) return;
     stopping = true;
     console.log(`[worker] ${signal}: shutting down`);
-    const timer = setTimeout(() => {
+    // The last resort if even cancelling hangs (a stuck Redis connection): exit anyway.
+    const hardStop = setTimeout(() => {
       console.error("[worker] shutdown took too long; exiting");
       process.exit(1);
-    }, SHUTDOWN_GRACE_MS);
-    await connection.quit().catch(() => {});
-    clearTimeout(timer);
-    console.log("[worker] stopped");
+    }, timings.shutdownGraceMs + 15_000);
+    hardStop.unref();
+    const { forced } = await running.stop();
+    await closeDb().catch(() => {});
+    console.log(`[worker] stopped${forced ? " (running jobs were returned to the queue)" : ""}`);
     process.exit(0);
   };
   process.on("SIGTERM", () => void stop("SIGTERM"));

@@ -1,0 +1,86 @@
+// Job "build-report": renders one report version to PDF (@react-pdf/renderer), stores it, records its
+// SHA-256, and logs the build in the custody chain. Reloads its row; an approved version is never
+// rebuilt, a built one is left alone; failures mark the version failed and rethrow for a retry.
+import { mkdtemp, rm, writeFile } from "node:fs/promises";
+import { createHash } from "node:crypto";
+import os from "node:os";
+import path from "node:path";
+import { and, eq, inArray } from "drizzle-orm";
+import { db } from "@/db/client";
+import { reports } from "@/db/schema";
+import { recordCustodyEvent } from "@/lib/custody/record-custody-event";
+import { placeStoredFile, reportKey } from "@/lib/media-access/place-stored-file";
+import { loadReportData } from "@/lib/reports/load-report-data";
+import { renderReportPdf } from "@/lib/reports/render-report-pdf";
+import { statKey } from "@/lib/storage/local-store";
+import type { JobPayloads } from "@/lib/queue/jobs";
+import type { HandlerContext } from "./extract-still";
+
+export type BuildReportOutcome = "built" | "already-built" | "immutable" | "gone";
+
+export async function buildReport(data: JobPayloads["build-report"], ctx: HandlerContext = {}): Promise<BuildReportOutcome> {
+  const [report] = await db().select().from(reports).where(eq(reports.id, data.reportId));
+  if (!report) return "gone";
+  if (report.state === "approved") return "immutable";
+  if (report.state === "ready" && report.storageKey && (await statKey(report.storageKey))) return "already-built";
+
+  const progress = async (p: number) => {
+    await db()
+      .update(reports)
+      .set({ progress: p, updatedAt: new Date() })
+      .where(and(eq(reports.id, report.id), eq(reports.state, "building")));
+    await ctx.progress?.(p);
+  };
+  const work = await mkdtemp(path.join(os.tmpdir(), "cairn-report-"));
+  try {
+    await db()
+      .update(reports)
+      .set({ state: "building", progress: 5, failureReason: null, updatedAt: new Date() })
+      .where(and(eq(reports.id, report.id), inArray(reports.state, ["queued", "building", "failed", "ready"])));
+    const content = await loadReportData(report.organisationId, report.id);
+    await progress(30);
+    if (ctx.signal?.aborted) throw new Error("cancelled");
+    const pdf = await renderReportPdf(content);
+    await progress(85);
+    const sha256 = createHash("sha256").update(pdf).digest("hex");
+    const file = path.join(work, "report.pdf");
+    await writeFile(file, pdf);
+    const key = reportKey(report.organisationId, report.jobId, report.id);
+    await placeStoredFile(file, key);
+
+    await db().transaction(async (tx) => {
+      const [done] = await tx
+        .update(reports)
+        .set({ state: "ready", progress: 100, storageKey: key, sizeBytes: pdf.length, sha256, failureReason: null, updatedAt: new Date() })
+        .where(and(eq(reports.id, report.id), eq(reports.state, "building")))
+        .returning({ id: reports.id });
+      if (!done) throw new Error("the report left the building state while it was rendered");
+      await recordCustodyEvent(
+        {
+          organisationId: report.organisationId,
+          eventType: "report_built",
+          evidenceType: "report",
+          evidenceId: report.id,
+          jobId: report.jobId,
+          actor: { userId: report.createdBy },
+          storageLocation: key,
+          tool: "@react-pdf/renderer",
+          outputSha256: sha256,
+          details: { version: report.version, findings: content.findings.length, recordings: content.recordings.length, sizeBytes: pdf.length },
+        },
+        tx,
+      );
+    });
+    await ctx.progress?.(100);
+    return "built";
+  } catch (err) {
+    await db()
+      .update(reports)
+      .set({ state: "failed", failureReason: (err as Error).message.split("\n")[0].slice(0, 300), updatedAt: new Date() })
+      .where(and(eq(reports.id, report.id), inArray(reports.state, ["queued", "building"])))
+      .catch(() => {});
+    throw err;
+  } finally {
+    await rm(work, { recursive: true, force: true });
+  }
+}

@@ -1,0 +1,86 @@
+// Job "extract-still": the full-resolution picture of a finding's exact frame, taken from the playable
+// rendition (the video the reviewer marked it on; same frames, same timing), stored under its own key,
+// hashed, and recorded in the custody log. Reloads its row; returns quietly when the row is gone or
+// the still is already made; rethrows failures so BullMQ retries.
+import { mkdtemp, rm } from "node:fs/promises";
+import os from "node:os";
+import path from "node:path";
+import { createReadStream } from "node:fs";
+import { and, eq } from "drizzle-orm";
+import { db } from "@/db/client";
+import { renditions, stills } from "@/db/schema";
+import { loadReviewRecording } from "@/lib/findings/load-review-recording";
+import { extractFrame } from "@/lib/findings/extract-frame";
+import { placeStoredFile, stillKey } from "@/lib/media-access/place-stored-file";
+import { statKey, storePath } from "@/lib/storage/local-store";
+import { sha256OfStream } from "@/lib/custody/sha256-stream";
+import { recordCustodyEvent } from "@/lib/custody/record-custody-event";
+import type { JobPayloads } from "@/lib/queue/jobs";
+
+export type HandlerContext = { signal?: AbortSignal; progress?: (percent: number) => Promise<void> | void };
+export type ExtractStillOutcome = "made" | "already-made" | "gone";
+
+export async function extractStill(data: JobPayloads["extract-still"], ctx: HandlerContext = {}): Promise<ExtractStillOutcome> {
+  const [still] = await db().select().from(stills).where(eq(stills.id, data.stillId));
+  if (!still) return "gone";
+  if (still.state === "ready" && still.storageKey && (await statKey(still.storageKey))) return "already-made";
+
+  const work = await mkdtemp(path.join(os.tmpdir(), "cairn-still-"));
+  try {
+    const rec = await loadReviewRecording(still.organisationId, still.recordingId).catch(() => null);
+    if (!rec) {
+      await markFailed(still.id, "The recording was deleted before the still was made");
+      return "gone";
+    }
+    if (!rec.timing) throw new Error("the recording has no frame timing yet (not processed)");
+    const [playable] = await db()
+      .select({ storageKey: renditions.storageKey })
+      .from(renditions)
+      .where(and(eq(renditions.recordingId, rec.id), eq(renditions.organisationId, rec.organisationId), eq(renditions.kind, "playable")));
+    if (!playable) throw new Error("the recording has no playable rendition to take the still from");
+    await ctx.progress?.(10);
+
+    const out = path.join(work, "still.jpg");
+    const frame = await extractFrame({ input: storePath(playable.storageKey), inputName: "playable.mp4", frame: still.frameNumber, rate: rec.timing.rate, output: out, signal: ctx.signal });
+    await ctx.progress?.(70);
+    const digest = await sha256OfStream(createReadStream(out));
+    const key = stillKey(still.organisationId, still.recordingId, still.id);
+    await placeStoredFile(out, key);
+
+    await db().transaction(async (tx) => {
+      await tx
+        .update(stills)
+        .set({ state: "ready", storageKey: key, width: frame.width, height: frame.height, sha256: digest.hex, failureReason: null, updatedAt: new Date() })
+        .where(eq(stills.id, still.id));
+      await recordCustodyEvent(
+        {
+          organisationId: still.organisationId,
+          eventType: "derived",
+          evidenceType: "still",
+          evidenceId: still.id,
+          jobId: rec.jobId,
+          originalSha256: rec.sha256,
+          originalSize: rec.sizeBytes,
+          storageLocation: key,
+          purpose: "finding still",
+          tool: frame.tool,
+          toolArgs: frame.args,
+          outputSha256: digest.hex,
+          details: { recordingId: rec.id, findingId: still.findingId, frameNumber: still.frameNumber, ptsTime: frame.ptsTime },
+        },
+        tx,
+      );
+    });
+    await ctx.progress?.(100);
+    return "made";
+  } catch (err) {
+    await markFailed(still.id, (err as Error).message.split("\n")[0].slice(0, 300)).catch(() => {});
+    throw err;
+  } finally {
+    await rm(work, { recursive: true, force: true });
+  }
+}
+
+async function markFailed(stillId: string, reason: string) {
+  await db().update(stills).set({ state: "failed", failureReason: reason, updatedAt: new Date() }).where(eq(stills.id, stillId));
+}
