@@ -4,6 +4,7 @@
 import { and, eq, inArray } from "drizzle-orm";
 import { db } from "@/db/client";
 import { recordings } from "@/db/schema";
+import { notifyProcessingFinished } from "@/lib/notify";
 
 const MAX_REASON = 400; // characters
 
@@ -12,6 +13,7 @@ export async function markRecordingFailed(recordingId: string, reason: string): 
     .update(recordings)
     .set({ state: "failed", progress: 0, failureReason: reason.split("\n")[0].slice(0, MAX_REASON), updatedAt: new Date() })
     .where(and(eq(recordings.id, recordingId), inArray(recordings.state, ["waiting", "processing"])));
+  await notifyProcessingFinished(recordingId);
 }
 
 /** Between attempts: back to "waiting" so the pages do not show a stuck percentage. */

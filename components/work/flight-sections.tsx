@@ -3,8 +3,13 @@
 import type { ComponentType } from "react";
 import type { FlightDetail } from "@/lib/work/flights";
 import type { Member } from "@/lib/auth/load-member";
+import { FlightTimelineSection } from "@/components/flight-timeline/flight-timeline-section";
+import { FlightRecordingsSection } from "./evidence-sections";
 
 export type FlightSectionProps = { flight: FlightDetail; viewer: Member };
 export type FlightSection = { id: string; title: string; Component: ComponentType<FlightSectionProps> };
 
-export const FLIGHT_SECTIONS: FlightSection[] = [];
+export const FLIGHT_SECTIONS: FlightSection[] = [
+  { id: "timeline", title: "Flight timeline", Component: FlightTimelineSection },
+  { id: "recordings", title: "Recordings", Component: FlightRecordingsSection },
+];

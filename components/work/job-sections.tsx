@@ -6,11 +6,15 @@ import type { JobDetail } from "@/lib/work/jobs";
 import type { Member } from "@/lib/auth/load-member";
 import { JobShareLinksSection } from "@/components/sharing/job-share-links-section";
 import { JobCustodySection } from "@/components/custody/job-custody-section";
+import { JobFindingsSection, JobRecordingsSection, JobReportsSection } from "./evidence-sections";
 
 export type JobSectionProps = { job: JobDetail; viewer: Member };
 export type JobSection = { id: string; title: string; Component: ComponentType<JobSectionProps> };
 
 export const JOB_SECTIONS: JobSection[] = [
+  { id: "recordings", title: "Recordings", Component: JobRecordingsSection },
+  { id: "findings", title: "Findings", Component: JobFindingsSection },
+  { id: "reports", title: "Reports", Component: JobReportsSection },
   { id: "share-links", title: "Share links", Component: JobShareLinksSection },
   { id: "custody", title: "Custody and legal hold", Component: JobCustodySection },
 ];

@@ -16,6 +16,7 @@ import { canonicalSerialize } from "@/lib/custody/canonical-serialize";
 import { deriveRecordingOutputs, type DeriveResult } from "@/lib/media/derive-recording-outputs";
 import { RecordingRefused } from "@/lib/media/recording-refused";
 import { markRecordingFailed } from "../mark-recording-failed";
+import { notifyProcessingFinished } from "@/lib/notify";
 import { recordingProgressReporter } from "../report-progress";
 
 const WORKER_TOOL = "cairn worker";
@@ -59,6 +60,8 @@ export async function processRecordingJob(job: Job<Payload>, signal: AbortSignal
     if (signal.aborted) throw signal.reason instanceof Error ? signal.reason : new Error("cancelled");
 
     await commitResult(job, rec, result, workDir);
+    // the crew hears once per outcome; a mail problem never fails the job (notify never throws)
+    await notifyProcessingFinished(recordingId);
   } catch (err) {
     if (err instanceof RecordingRefused) {
       await markRecordingFailed(recordingId, err.message);
