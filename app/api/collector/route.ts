@@ -1,0 +1,66 @@
+// POST /api/collector: the app's own playback-analytics collector. mux-embed posts its beacons here
+// (text/plain JSON { metadata, events }); views are stored per viewer from the session. OPTIONS: CORS.
+import { ApiError, errorResponse } from "@/lib/api/errors";
+import { requireMember } from "@/lib/api/with-org";
+import { env } from "@/lib/config/env";
+import { readBeacons, BeaconError } from "@/lib/playback/read-beacons";
+import { recordPlaybackViews } from "@/lib/playback/record-playback-views";
+
+const MAX_BODY_BYTES = 600 * 1024; // mux-embed caps a beacon at 500 KB (maxPayloadKBSize)
+
+/** Only the app's own pages may post beacons with credentials. */
+function corsHeaders(req: Request): Record<string, string> {
+  const origin = req.headers.get("origin");
+  if (!origin) return {};
+  const allowed = new Set([new URL(env().APP_URL).origin]);
+  const host = req.headers.get("host");
+  if (host) {
+    allowed.add(`http://${host}`);
+    allowed.add(`https://${host}`);
+  }
+  if (!allowed.has(origin)) return {};
+  return {
+    "Access-Control-Allow-Origin": origin,
+    "Access-Control-Allow-Credentials": "true",
+    "Access-Control-Allow-Methods": "POST, OPTIONS",
+    "Access-Control-Allow-Headers": "Content-Type",
+    "Access-Control-Max-Age": "600",
+    Vary: "Origin",
+  };
+}
+
+export async function OPTIONS(req: Request) {
+  return new Response(null, { status: 204, headers: { ...corsHeaders(req), "Cache-Control": "no-store" } });
+}
+
+export async function POST(req: Request) {
+  const cors = corsHeaders(req);
+  try {
+    const length = Number(req.headers.get("content-length") ?? 0);
+    if (length > MAX_BODY_BYTES) throw new ApiError("payload_too_large", "Beacon too large");
+    const member = await requireMember(req);
+    const text = await req.text();
+    if (text.length > MAX_BODY_BYTES) throw new ApiError("payload_too_large", "Beacon too large");
+    let body: unknown;
+    try {
+      body = JSON.parse(text);
+    } catch {
+      throw new ApiError("bad_request", "The beacon is not JSON");
+    }
+    let views;
+    try {
+      views = readBeacons(body);
+    } catch (err) {
+      if (err instanceof BeaconError) throw new ApiError("bad_request", err.message);
+      throw err;
+    }
+    const result = await recordPlaybackViews({ organisationId: member.organisationId, userId: member.userId, shareLinkId: null }, views);
+    // 200 even when some views were ignored: the SDK retries failed posts, and an unknown video
+    // will not become known by retrying
+    return Response.json(result, { headers: { ...cors, "Cache-Control": "no-store" } });
+  } catch (err) {
+    const res = errorResponse(err);
+    for (const [k, v] of Object.entries(cors)) res.headers.set(k, v);
+    return res;
+  }
+}

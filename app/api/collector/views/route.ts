@@ -1,0 +1,10 @@
+// GET /api/collector/views?recordingId=: who watched a recording, when, and how playback went
+import { z } from "zod";
+import { withOrg, parseQuery, ok } from "@/lib/api/with-org";
+import { listPlaybackViews } from "@/lib/playback/list-playback-views";
+
+const query = z.object({ recordingId: z.string().uuid() });
+
+export const GET = withOrg({ permission: "recordings.read" }, async ({ req, member }) =>
+  ok(await listPlaybackViews(member.organisationId, parseQuery(req, query).recordingId)),
+);

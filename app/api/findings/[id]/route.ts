@@ -1,0 +1,31 @@
+// GET/PATCH/DELETE /api/findings/:id: read, edit (kept as a new version) or delete (recorded, not erased) a finding
+import { z } from "zod";
+import { withOrg, readJson, idParam, ok } from "@/lib/api/with-org";
+import { notFound } from "@/lib/api/errors";
+import { requestFacts } from "@/lib/custody/record-custody-event";
+import { updateFindingInput } from "@/lib/findings/finding-input";
+import { updateFinding } from "@/lib/findings/update-finding";
+import { deleteFinding } from "@/lib/findings/delete-finding";
+import { loadFindingView } from "@/lib/findings/finding-view";
+
+type P = { id: string };
+const deleteInput = z.object({ reason: z.string().trim().max(500).optional() }).strict();
+
+export const GET = withOrg<P>({ permission: "findings.read" }, async ({ params, member }) => {
+  const view = await loadFindingView(member.organisationId, idParam(params.id, "Finding not found"));
+  if (!view) throw notFound("Finding not found");
+  return ok(view);
+});
+
+export const PATCH = withOrg<P>({ permission: "findings.write" }, async ({ req, params, member }) => {
+  const id = idParam(params.id, "Finding not found");
+  const input = await readJson(req, updateFindingInput);
+  return ok(await updateFinding(member.organisationId, id, input, { userId: member.userId, role: member.role, ...requestFacts(req) }));
+});
+
+export const DELETE = withOrg<P>({ permission: "findings.write" }, async ({ req, params, member }) => {
+  const id = idParam(params.id, "Finding not found");
+  // a reason is optional; a DELETE without a body is the common case
+  const { reason } = (await req.clone().text()).trim() ? await readJson(req, deleteInput) : { reason: undefined };
+  return ok(await deleteFinding(member.organisationId, id, { userId: member.userId, role: member.role, ...requestFacts(req) }, reason || null));
+});

@@ -1,0 +1,25 @@
+// GET /api/findings?recordingId=|jobId=: live findings of a recording or a job; POST /api/findings: mark one
+import { z } from "zod";
+import { eq } from "drizzle-orm";
+import { withOrg, readJson, parseQuery, created, ok } from "@/lib/api/with-org";
+import { ApiError } from "@/lib/api/errors";
+import { findings } from "@/db/schema";
+import { requestFacts } from "@/lib/custody/record-custody-event";
+import { createFindingInput } from "@/lib/findings/finding-input";
+import { createFinding } from "@/lib/findings/create-finding";
+import { loadFindingViews } from "@/lib/findings/finding-view";
+
+const query = z.object({ recordingId: z.string().uuid().optional(), jobId: z.string().uuid().optional() });
+
+export const GET = withOrg({ permission: "findings.read" }, async ({ req, member }) => {
+  const q = parseQuery(req, query);
+  if (!q.recordingId && !q.jobId) throw new ApiError("bad_request", "Ask for the findings of a recording (recordingId) or a job (jobId)");
+  const where = q.recordingId ? eq(findings.recordingId, q.recordingId) : eq(findings.jobId, q.jobId!);
+  const items = await loadFindingViews(member.organisationId, where);
+  return ok({ items, total: items.length });
+});
+
+export const POST = withOrg({ permission: "findings.write" }, async ({ req, member }) => {
+  const input = await readJson(req, createFindingInput);
+  return created(await createFinding(member.organisationId, input, { userId: member.userId, role: member.role, ...requestFacts(req) }));
+});

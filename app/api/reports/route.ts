@@ -1,0 +1,21 @@
+// GET /api/reports?jobId=: the job's report versions, newest first; POST /api/reports {jobId}: build a new version
+import { z } from "zod";
+import { eq } from "drizzle-orm";
+import { withOrg, readJson, parseQuery, created, ok } from "@/lib/api/with-org";
+import { reports } from "@/db/schema";
+import { loadReportViews } from "@/lib/reports/report-view";
+import { requestReportBuild } from "@/lib/reports/request-report-build";
+
+const query = z.object({ jobId: z.string().uuid("Ask for the reports of a job (jobId)") });
+const input = z.object({ jobId: z.string().uuid("Unknown job") }).strict();
+
+export const GET = withOrg({ permission: "findings.read" }, async ({ req, member }) => {
+  const { jobId } = parseQuery(req, query);
+  const items = await loadReportViews(member.organisationId, eq(reports.jobId, jobId));
+  return ok({ items, total: items.length });
+});
+
+export const POST = withOrg({ permission: "reports.build" }, async ({ req, member }) => {
+  const { jobId } = await readJson(req, input);
+  return created(await requestReportBuild(member.organisationId, jobId, member.userId));
+});

@@ -1,0 +1,2 @@
+// videojs-mux ships no types: importing it registers the `mux` plugin on video.js.
+declare module "videojs-mux";

@@ -1,0 +1,15 @@
+// A finding category as an organisation edits it.
+import { z } from "zod";
+import { ASSET_KINDS } from "@/lib/validation/work";
+
+export const categoryInput = z
+  .object({
+    name: z.string().trim().min(1, "Required").max(80, "At most 80 characters"),
+    // null: offered for every kind of asset
+    assetKind: z.enum(ASSET_KINDS).nullable().optional(),
+  })
+  .strict();
+export const categoryPatch = categoryInput.partial().extend({ archived: z.boolean().optional() }).strict();
+
+export type CategoryInput = z.infer<typeof categoryInput>;
+export type CategoryPatch = z.infer<typeof categoryPatch>;

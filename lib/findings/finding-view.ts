@@ -1,0 +1,108 @@
+// What the API and pages show of a finding: its own columns, the category and author names, the
+// recording's name and original hash, and its newest still. Never the whole row (CONVENTIONS.md).
+import { and, asc, desc, eq, inArray, isNull, type SQL } from "drizzle-orm";
+import { db, type DbOrTx } from "@/db/client";
+import { findingCategories, findings, recordings, stills, users } from "@/db/schema";
+import type { FrameBox } from "@/db/schema/review";
+import type { Severity } from "./severity-scale";
+
+export type StillView = { id: string; state: "pending" | "ready" | "failed"; frameNumber: number; width: number | null; height: number | null; sha256: string | null; failureReason: string | null };
+
+export type FindingView = {
+  id: string;
+  jobId: string;
+  recordingId: string;
+  recordingName: string;
+  recordingSha256: string;
+  startFrame: number;
+  endFrame: number | null;
+  startSec: number;
+  endSec: number | null;
+  severity: Severity;
+  categoryId: string | null;
+  categoryName: string | null;
+  note: string;
+  box: FrameBox | null;
+  latitude: number | null;
+  longitude: number | null;
+  heightAglM: number | null;
+  groundDistanceM: number | null;
+  slantDistanceM: number | null;
+  version: number;
+  createdBy: { id: string; name: string } | null;
+  createdAt: Date;
+  updatedAt: Date;
+  still: StillView | null;
+};
+
+const columns = {
+  id: findings.id,
+  jobId: findings.jobId,
+  recordingId: findings.recordingId,
+  recordingName: recordings.originalName,
+  recordingSha256: recordings.sha256,
+  startFrame: findings.startFrame,
+  endFrame: findings.endFrame,
+  startSec: findings.startSec,
+  endSec: findings.endSec,
+  severity: findings.severity,
+  categoryId: findings.categoryId,
+  categoryName: findingCategories.name,
+  note: findings.note,
+  box: findings.box,
+  latitude: findings.latitude,
+  longitude: findings.longitude,
+  heightAglM: findings.heightAglM,
+  groundDistanceM: findings.groundDistanceM,
+  slantDistanceM: findings.slantDistanceM,
+  version: findings.version,
+  createdById: findings.createdBy,
+  createdByName: users.name,
+  createdAt: findings.createdAt,
+  updatedAt: findings.updatedAt,
+};
+
+/** Live (not deleted) findings of the organisation matching `where`, in time order within each recording. */
+export async function loadFindingViews(organisationId: string, where: SQL | undefined, tx: DbOrTx = db()): Promise<FindingView[]> {
+  const rows = await tx
+    .select(columns)
+    .from(findings)
+    .innerJoin(recordings, eq(recordings.id, findings.recordingId))
+    .leftJoin(findingCategories, eq(findingCategories.id, findings.categoryId))
+    .leftJoin(users, eq(users.id, findings.createdBy))
+    .where(and(eq(findings.organisationId, organisationId), isNull(findings.deletedAt), where))
+    .orderBy(asc(recordings.sequenceIndex), asc(recordings.createdAt), asc(findings.startFrame), asc(findings.createdAt));
+  const latest = await latestStills(organisationId, rows.map((r) => r.id), tx);
+  return rows.map(({ createdById, createdByName, ...r }) => ({
+    ...r,
+    createdBy: createdById ? { id: createdById, name: createdByName ?? "" } : null,
+    still: latest.get(r.id) ?? null,
+  }));
+}
+
+/** The newest still of each finding: an edit that moves the finding asks for a new one. */
+export async function latestStills(organisationId: string, findingIds: string[], tx: DbOrTx = db()): Promise<Map<string, StillView>> {
+  const out = new Map<string, StillView>();
+  if (!findingIds.length) return out;
+  const rows = await tx
+    .select({
+      id: stills.id,
+      findingId: stills.findingId,
+      state: stills.state,
+      frameNumber: stills.frameNumber,
+      width: stills.width,
+      height: stills.height,
+      sha256: stills.sha256,
+      failureReason: stills.failureReason,
+    })
+    .from(stills)
+    .where(and(eq(stills.organisationId, organisationId), inArray(stills.findingId, findingIds)))
+    .orderBy(desc(stills.createdAt));
+  for (const { findingId, ...s } of rows) if (findingId && !out.has(findingId)) out.set(findingId, s);
+  return out;
+}
+
+export async function loadFindingView(organisationId: string, id: string, tx: DbOrTx = db()): Promise<FindingView | null> {
+  const [row] = await loadFindingViews(organisationId, eq(findings.id, id), tx);
+  return row ?? null;
+}

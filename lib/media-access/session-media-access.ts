@@ -1,0 +1,27 @@
+// Media access for a signed-in member: the session cookie, the membership read fresh from the
+// database on every request (a removed member loses access at the next range request), the role's
+// permission for the kind of file.
+import { ApiError } from "@/lib/api/errors";
+import { requireMember } from "@/lib/api/with-org";
+import { can, type Permission } from "@/lib/auth/permissions";
+import type { MediaAccessMode } from "./media-access-mode";
+import type { MediaFile, MediaPrincipal } from "./media-file";
+
+const PERMISSION_FOR: Record<MediaFile["kind"], Permission> = {
+  rendition: "recordings.read",
+  still: "findings.read",
+  report: "findings.read",
+};
+
+export const sessionMediaAccess: MediaAccessMode = {
+  name: "session",
+  applies: (c) => c.token === null,
+  async principal(c): Promise<MediaPrincipal> {
+    const m = await requireMember(c.req);
+    if (!can(m.role, "recordings.read")) throw new ApiError("forbidden", "Your role does not allow viewing media");
+    return { type: "member", organisationId: m.organisationId, userId: m.userId, role: m.role };
+  },
+  mayOpen(p, file) {
+    return p.type === "member" && p.organisationId === file.organisationId && can(p.role, PERMISSION_FOR[file.kind]);
+  },
+};

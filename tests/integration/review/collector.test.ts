@@ -1,0 +1,96 @@
+// The playback-analytics collector: beacons as mux-embed sends them (text/plain JSON, shortened keys),
+// stored per view and viewer; refused without a session; never crossing organisations.
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { eq } from "drizzle-orm";
+import * as collector from "@/app/api/collector/route";
+import * as viewsApi from "@/app/api/collector/views/route";
+import { db, closeDb } from "@/db/client";
+import * as s from "@/db/schema";
+import { closeRedis } from "@/lib/queue/redis";
+import { env } from "@/lib/config/env";
+import { demoActors, demoOrganisationId, sessionCookie, type Actor, type DemoActorKey } from "@/tests/support/session";
+import { makeFlight } from "@/tests/support/factories";
+
+let actors: Record<DemoActorKey, Actor>;
+let recordingId: string;
+const t0 = Date.UTC(2026, 2, 14, 9, 0, 0);
+
+async function beacon(actor: Actor, body: unknown, headers: Record<string, string> = {}) {
+  const h: Record<string, string> = { "content-type": "text/plain", ...headers };
+  if (actor) h.cookie = await sessionCookie(actor);
+  return collector.POST(new Request("http://localhost/api/collector?via=localhost", { method: "POST", headers: h, body: typeof body === "string" ? body : JSON.stringify(body) }));
+}
+const events = (viewKey: string, watch: number, extra: Record<string, unknown> = {}) => ({
+  metadata: { transmission_timestamp: t0 + watch },
+  events: [{ e: "hb", xid: viewKey, vid: recordingId, xst: t0, uti: t0 + watch, xwati: watch, xtitofifr: 350, xreco: 0, xredu: 0, ake: "cairn-local", ...extra }],
+});
+
+beforeAll(async () => {
+  actors = await demoActors();
+  const orgId = await demoOrganisationId();
+  const flight = await makeFlight(orgId);
+  const [r] = await db()
+    .insert(s.recordings)
+    .values({ organisationId: orgId, jobId: flight.jobId, flightId: flight.id, originalName: "VIEWED.264", sizeBytes: 10, kind: "raw_h264", sha256: "0".repeat(64), state: "ready" })
+    .returning();
+  recordingId = r.id;
+});
+afterAll(async () => {
+  await closeDb();
+  await closeRedis();
+});
+
+describe("collector", () => {
+  it("stores a view for the signed-in viewer and keeps the largest figures of later beacons", async () => {
+    const first = await beacon(actors.reviewer, events("view-a", 4000));
+    expect(first.status).toBe(200);
+    expect(await first.json()).toEqual({ stored: 1, ignored: 0 });
+    await beacon(actors.reviewer, events("view-a", 9000, { xreco: 2, xredu: 640 }));
+    // an out-of-order older beacon does not lower anything
+    await beacon(actors.reviewer, events("view-a", 2000));
+    const [row] = await db().select().from(s.playbackViews).where(eq(s.playbackViews.viewKey, "view-a"));
+    expect(row).toMatchObject({ recordingId, viewerUserId: actors.reviewer!.userId, watchTimeMs: 9000, startupTimeMs: 350, rebufferCount: 2, rebufferMs: 640 });
+    expect(row.startedAt.getTime()).toBe(t0);
+  });
+
+  it("refuses beacons without a session, and malformed ones", async () => {
+    expect((await beacon(null, events("view-b", 1000))).status).toBe(401);
+    expect((await beacon(actors.reviewer, "{not json")).status).toBe(400);
+    expect((await beacon(actors.reviewer, { events: "nope" })).status).toBe(400);
+    expect(await db().$count(s.playbackViews, eq(s.playbackViews.viewKey, "view-b"))).toBe(0);
+  });
+
+  it("never records a view of another organisation's recording, nor lets a view id be taken over", async () => {
+    const res = await beacon(actors.other, events("view-c", 1000));
+    expect(await res.json()).toEqual({ stored: 0, ignored: 1 });
+    // the owner replays the reviewer's view id: the reviewer's row stays as it was
+    const hijack = await beacon(actors.owner, events("view-a", 999_000));
+    expect(await hijack.json()).toEqual({ stored: 0, ignored: 1 });
+    const [row] = await db().select().from(s.playbackViews).where(eq(s.playbackViews.viewKey, "view-a"));
+    expect(row.watchTimeMs).toBe(9000);
+    expect(row.viewerUserId).toBe(actors.reviewer!.userId);
+  });
+
+  it("answers CORS for the app's own origin only", async () => {
+    const origin = new URL(env().APP_URL).origin;
+    const ok = await collector.OPTIONS(new Request("http://localhost/api/collector", { method: "OPTIONS", headers: { origin, "access-control-request-method": "POST" } }));
+    expect(ok.status).toBe(204);
+    expect(ok.headers.get("access-control-allow-origin")).toBe(origin);
+    expect(ok.headers.get("access-control-allow-credentials")).toBe("true");
+    const evil = await collector.OPTIONS(new Request("http://localhost/api/collector", { method: "OPTIONS", headers: { origin: "https://elsewhere.example" } }));
+    expect(evil.headers.get("access-control-allow-origin")).toBeNull();
+  });
+
+  it("lists a recording's views with the viewer's name, inside the organisation only", async () => {
+    const req = async (actor: Actor) => {
+      const h: Record<string, string> = {};
+      if (actor) h.cookie = await sessionCookie(actor);
+      return viewsApi.GET(new Request(`http://localhost/api/collector/views?recordingId=${recordingId}`, { headers: h }));
+    };
+    const body = await (await req(actors.client)).json();
+    expect(body.items).toHaveLength(1);
+    expect(body.items[0]).toMatchObject({ viewerName: "Cleo Marchbank", watchTimeMs: 9000, rebufferCount: 2 });
+    expect((await req(actors.other)).status).toBe(404);
+    expect((await req(null)).status).toBe(401);
+  });
+});

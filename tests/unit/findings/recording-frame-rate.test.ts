@@ -1,0 +1,36 @@
+import { describe, expect, it } from "vitest";
+import { frameRateFromFps, recordingTiming } from "@/lib/findings/recording-frame-rate";
+
+describe("frameRateFromFps", () => {
+  // SMPTE ST 12-1: 29.97 and 59.94 are 30000/1001 and 60000/1001 exactly (CHECKS.md, Time)
+  it.each([
+    [30000 / 1001, { num: 30000, den: 1001 }],
+    [29.97, { num: 30000, den: 1001 }],
+    [59.94, { num: 60000, den: 1001 }],
+    [23.976, { num: 24000, den: 1001 }],
+    [25, { num: 25, den: 1 }],
+    [30, { num: 30, den: 1 }],
+    [50.0001, { num: 50, den: 1 }],
+    [12.5, { num: 25, den: 2 }],
+  ])("%d fps -> %o", (fps, rate) => {
+    expect(frameRateFromFps(fps)).toEqual(rate);
+  });
+
+  it("refuses rates that cannot be real", () => {
+    for (const v of [0, -30, Number.NaN, Number.POSITIVE_INFINITY, 5000]) expect(() => frameRateFromFps(v)).toThrow(RangeError);
+  });
+});
+
+describe("recordingTiming", () => {
+  it("prefers the pilot's override, then the stream, then the organisation default", () => {
+    const facts = { fps: 25, frameCount: 50, durationSec: 2 };
+    expect(recordingTiming({ fpsOverride: 30, durationSec: 2, facts }, 24)?.rate).toEqual({ num: 30, den: 1 });
+    expect(recordingTiming({ fpsOverride: null, durationSec: 2, facts }, 24)?.rate).toEqual({ num: 25, den: 1 });
+    expect(recordingTiming({ fpsOverride: null, durationSec: 2, facts: { frameCount: 48 } }, 24)?.rate).toEqual({ num: 24, den: 1 });
+  });
+
+  it("counts frames from the facts, else from duration x rate; unknown timing is null", () => {
+    expect(recordingTiming({ fpsOverride: null, durationSec: 2.002, facts: { fps: 30000 / 1001 } }, 30)?.frameCount).toBe(60);
+    expect(recordingTiming({ fpsOverride: null, durationSec: null, facts: { fps: 30 } }, 30)).toBeNull();
+  });
+});
