@@ -1,0 +1,21 @@
+// GET/POST/DELETE /api/recordings/:id/tags: a recording's tags; POST { name } adds one, DELETE ?name= removes one
+import { z } from "zod";
+import { withOrg, idParam, parseQuery, readJson, ok } from "@/lib/api/with-org";
+import { addRecordingTag, recordingTagNames, removeRecordingTag, tagInput, tagName } from "@/lib/ingest/tag-recording";
+
+type P = { id: string };
+const id = (params: P) => idParam(params.id, "Recording not found");
+
+export const GET = withOrg<P>({ permission: "recordings.read" }, async ({ params, member }) =>
+  ok({ tags: await recordingTagNames(member.organisationId, id(params)) }),
+);
+
+export const POST = withOrg<P>({ permission: "recordings.tag" }, async ({ req, params, member }) => {
+  const { name } = await readJson(req, tagInput);
+  return ok({ tags: await addRecordingTag(member.organisationId, id(params), name) });
+});
+
+export const DELETE = withOrg<P>({ permission: "recordings.tag" }, async ({ req, params, member }) => {
+  const { name } = parseQuery(req, z.object({ name: tagName }));
+  return ok({ tags: await removeRecordingTag(member.organisationId, id(params), name) });
+});

@@ -1,0 +1,15 @@
+// /api/uploads: the tus 1.0.0 endpoint for recordings (POST, HEAD, PATCH, DELETE, OPTIONS) and
+// GET /api/uploads/<id>, the outcome of one upload. Logic in lib/ingest/handle-upload-request.ts.
+// Request bodies stream straight to the staging folder: no proxy.ts matcher may include this path.
+import { handleUploadRequest } from "@/lib/ingest/handle-upload-request";
+
+export const runtime = "nodejs";
+export const dynamic = "force-dynamic";
+
+// bound wrappers, never `server.handleWeb` itself (STACK-NOTES.md, tus)
+export const GET = (req: Request) => handleUploadRequest(req);
+export const HEAD = (req: Request) => handleUploadRequest(req);
+export const POST = (req: Request) => handleUploadRequest(req);
+export const PATCH = (req: Request) => handleUploadRequest(req);
+export const DELETE = (req: Request) => handleUploadRequest(req);
+export const OPTIONS = (req: Request) => handleUploadRequest(req);

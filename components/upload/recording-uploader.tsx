@@ -1,0 +1,160 @@
+"use client";
+// The uploader: Uppy's Dashboard over our tus endpoint. Whole folders can be dropped or chosen;
+// each file goes in bounded chunks with retries, can be paused, resumed and retried, and after a
+// page reload re-adding the same file continues where it stopped (tus fingerprints in
+// localStorage). When a file completes, the server's outcome (stored with its hash, same bytes as
+// an existing recording, or refused with the reason) is fetched and reported to the page.
+import Uppy, { type UppyFile } from "@uppy/core";
+import Tus from "@uppy/tus";
+import Dashboard from "@uppy/react/dashboard";
+import { useEffect, useRef, useState } from "react";
+import { CLIENT_METADATA_KEYS } from "@/lib/ingest/upload-metadata";
+import { UPLOAD_CHUNK_BYTES, UPLOAD_RETRY_DELAYS_MS, UPLOAD_ROUTE_PATH } from "@/lib/ingest/upload-limits";
+import type { UploadOutcome } from "@/lib/ingest/upload-outcome";
+import "./uppy-styles.css";
+
+type Meta = {
+  jobId?: string;
+  flightId?: string;
+  filename?: string;
+  filetype?: string;
+  relativePath?: string;
+  lastModified?: string;
+};
+type Body = Record<string, never>;
+
+export type FileReport = {
+  fileId: string;
+  name: string;
+  relativePath: string | null;
+  /** every byte arrived; the server's outcome may still be on its way */
+  received?: boolean;
+  /** the server's outcome once known */
+  outcome?: UploadOutcome;
+  /** why the upload stopped, when it did not complete */
+  error?: string;
+};
+
+const STORING_POLL_MS = 2_000;
+const STORING_POLLS = 90; // 3 min: a commit that has to re-hash a very large file from disk
+
+async function fetchOutcome(uploadURL: string): Promise<UploadOutcome> {
+  for (let i = 0; ; i++) {
+    const res = await fetch(uploadURL, { headers: { Accept: "application/json" } });
+    const body = await res.json().catch(() => null);
+    if (!res.ok) throw new Error(body?.error?.message ?? `The server could not report on this file (${res.status})`);
+    const outcome = body as UploadOutcome;
+    if (outcome.state !== "storing" || i >= STORING_POLLS) return outcome;
+    await new Promise((r) => setTimeout(r, STORING_POLL_MS));
+  }
+}
+
+/** The server's reason from a failed tus request (our JSON error body), else a plain explanation. */
+function reasonOf(error: Error, response?: { status?: number; body?: { xhr?: XMLHttpRequest } }): string {
+  const text = response?.body?.xhr?.responseText;
+  if (text) {
+    try {
+      const message = JSON.parse(text)?.error?.message;
+      if (typeof message === "string") return message;
+    } catch {
+      // not our JSON: fall through
+    }
+  }
+  if (!response?.status) return "The connection dropped. Press retry, or add the same file again later: it continues where it stopped.";
+  return error.message;
+}
+
+export function RecordingUploader({ jobId, flightId, maxFileBytes, onReport }: { jobId: string; flightId: string; maxFileBytes: number; onReport: (r: FileReport) => void }) {
+  const report = useRef(onReport);
+  useEffect(() => {
+    report.current = onReport;
+  }, [onReport]);
+  const [uppy] = useState(() =>
+    new Uppy<Meta, Body>({
+      id: "cairn-recordings",
+      autoProceed: true,
+      restrictions: { maxFileSize: maxFileBytes },
+      onBeforeFileAdded: (file, files) => {
+        if (Object.hasOwn(files, file.id)) return false; // Uppy's default: the same file once
+        const data = file.data as File;
+        // names and folder paths travel as metadata; the server checks them and never uses them as paths
+        file.meta = {
+          ...file.meta,
+          filename: file.name ?? data.name,
+          filetype: file.type ?? "",
+          relativePath: (file.meta.relativePath as string | null | undefined) || data.webkitRelativePath || undefined,
+          lastModified: typeof data.lastModified === "number" ? String(data.lastModified) : "",
+        };
+        return file;
+      },
+    }).use(Tus, {
+      endpoint: UPLOAD_ROUTE_PATH,
+      chunkSize: UPLOAD_CHUNK_BYTES,
+      retryDelays: UPLOAD_RETRY_DELAYS_MS,
+      limit: 3,
+      allowedMetaFields: [...CLIENT_METADATA_KEYS],
+      // keep the fingerprint: re-adding a finished file then reports its outcome instead of uploading again
+      removeFingerprintOnSuccess: false,
+    }),
+  );
+
+  useEffect(() => {
+    uppy.setMeta({ jobId, flightId });
+  }, [uppy, jobId, flightId]);
+
+  useEffect(() => {
+    const base = (file: UppyFile<Meta, Body>) => ({ fileId: file.id, name: file.name ?? "file", relativePath: (file.meta.relativePath as string | null) ?? null });
+    const onSuccess = (file: UppyFile<Meta, Body> | undefined, response: { uploadURL?: string }) => {
+      if (!file || !response.uploadURL) return;
+      report.current({ ...base(file), received: true });
+      fetchOutcome(response.uploadURL).then(
+        (outcome) => report.current({ ...base(file), outcome }),
+        (err: Error) => report.current({ ...base(file), error: err.message }),
+      );
+    };
+    const onError = (file: UppyFile<Meta, Body> | undefined, error: Error, response?: { status?: number; body?: { xhr?: XMLHttpRequest } }) => {
+      if (file) report.current({ ...base(file), error: reasonOf(error, response) });
+    };
+    const onAdded = (file: UppyFile<Meta, Body> | undefined) => file && report.current({ ...base(file) });
+    const onRetryAll = () => uppy.getFiles().forEach((f) => f.error && report.current({ ...base(f) }));
+    uppy.on("upload-success", onSuccess);
+    uppy.on("upload-error", onError as never);
+    uppy.on("file-added", onAdded);
+    uppy.on("upload-retry", onAdded as never);
+    uppy.on("retry-all", onRetryAll as never);
+    return () => {
+      uppy.off("upload-success", onSuccess);
+      uppy.off("upload-error", onError as never);
+      uppy.off("file-added", onAdded);
+      uppy.off("upload-retry", onAdded as never);
+      uppy.off("retry-all", onRetryAll as never);
+    };
+  }, [uppy]);
+
+  // Leaving the page stops the uploads (they continue when the same files are added again); the
+  // browser asks first while any is running. Not destroy(): StrictMode's trial unmount would kill the instance.
+  useEffect(() => {
+    const warn = (e: BeforeUnloadEvent) => {
+      if (uppy.getFiles().some((f) => f.progress.uploadStarted && !f.progress.uploadComplete && !f.error)) e.preventDefault();
+    };
+    window.addEventListener("beforeunload", warn);
+    return () => {
+      window.removeEventListener("beforeunload", warn);
+      uppy.pauseAll(); // pause, never cancel: cancelling would delete the partial upload on the server
+    };
+  }, [uppy]);
+
+  return (
+    <Dashboard
+      uppy={uppy}
+      width="100%"
+      height={420}
+      fileManagerSelectionType="both"
+      proudlyDisplayPoweredByUppy={false}
+      hideProgressDetails={false}
+      hideUploadButton
+      showRemoveButtonAfterComplete={false}
+      note="Raw H.264 (.264, .h264, .avc or no extension), MP4, MOV and JPEG. Drop the whole SD-card folder; files are checked by their bytes on arrival."
+    />
+  );
+}

@@ -1,0 +1,83 @@
+"use client";
+// What became of each file of this session, in words: stored with its hash, the same bytes as a
+// recording already held (and where), refused with the server's reason, or stopped.
+import { HashText } from "@/components/ui/hash-text";
+import type { FileReport } from "./recording-uploader";
+
+function Line({ r }: { r: FileReport }) {
+  const o = r.outcome;
+  if (r.error) {
+    return (
+      <p className="text-bad">
+        <span aria-hidden className="mr-1">✕</span>
+        {r.error}
+      </p>
+    );
+  }
+  if (!o) return <p className="text-ink-2">{r.received ? "Received; checking and storing…" : "Uploading…"}</p>;
+  switch (o.state) {
+    case "receiving":
+      return <p className="text-ink-2">Uploading…</p>;
+    case "storing":
+      return <p className="text-ink-2">Received; checking and storing…</p>;
+    case "stored":
+      return (
+        <p className="flex flex-wrap items-center gap-2 text-good">
+          <span>
+            <span aria-hidden className="mr-1">✓</span>
+            <span className="font-medium">Stored</span>, original unaltered, SHA-256
+          </span>
+          <HashText value={o.sha256} />
+        </p>
+      );
+    case "duplicate": {
+      const d = o.duplicateOf;
+      return (
+        <p className="flex flex-wrap items-center gap-2">
+          <span>
+            <span aria-hidden className="mr-1">≡</span>
+            <span className="font-medium">Same bytes as “{d.originalName}”</span> ({d.jobTitle}, flight {d.flownOn}
+            {d.relativePath && d.relativePath !== d.originalName ? `, ${d.relativePath}` : ""}).{" "}
+            {o.linked ? "Filed in this flight too; no second copy stored." : "Already in this flight; nothing new stored."}
+          </span>
+          <HashText value={o.sha256} />
+        </p>
+      );
+    }
+    case "refused":
+      return (
+        <p className="text-bad">
+          <span aria-hidden className="mr-1">✕</span>
+          {o.reason}
+        </p>
+      );
+  }
+}
+
+export function UploadOutcomeList({ reports }: { reports: FileReport[] }) {
+  if (reports.length === 0) return null;
+  const stored = reports.filter((r) => r.outcome?.state === "stored").length;
+  const duplicates = reports.filter((r) => r.outcome?.state === "duplicate").length;
+  const refused = reports.filter((r) => r.outcome?.state === "refused" || r.error).length;
+  return (
+    <section aria-labelledby="outcomes-title" className="flex flex-col gap-2">
+      <h2 id="outcomes-title" className="text-lg font-semibold">
+        This session
+      </h2>
+      <p className="text-sm text-ink-2" aria-live="polite">
+        {reports.length} {reports.length === 1 ? "file" : "files"} · {stored} stored · {duplicates} already held · {refused} not stored
+      </p>
+      <ul className="divide-y divide-line rounded-md border border-line" aria-live="polite">
+        {reports.map((r) => (
+          <li key={r.fileId} className="flex flex-col gap-1 px-3 py-2 text-sm" data-upload-file={r.name} data-upload-state={r.error ? "error" : (r.outcome?.state ?? "uploading")}>
+            <span className="font-medium break-all">
+              {r.name}
+              {r.relativePath && r.relativePath !== r.name && <span className="ml-2 font-mono text-xs font-normal text-ink-2">{r.relativePath}</span>}
+            </span>
+            <Line r={r} />
+          </li>
+        ))}
+      </ul>
+    </section>
+  );
+}

@@ -1,0 +1,43 @@
+// The organisation's storage quota: originals already stored (a duplicate stores no second copy,
+// so it does not count) plus the full declared length of every upload still in the staging folder
+// (reserved at creation, so parallel uploads cannot together overrun the quota by much).
+// A soft limit: two creations in the same instant can both pass; the next one is refused.
+import { readdir } from "node:fs/promises";
+import { and, eq, isNull, sql } from "drizzle-orm";
+import { db } from "@/db/client";
+import { organisations, recordings } from "@/db/schema";
+import { env } from "@/lib/config/env";
+import type { StagingStore } from "./staging-store";
+import { UploadRefusal } from "./upload-refusal";
+import { formatBytes } from "./format-bytes";
+
+export type StorageUse = { storedBytes: number; reservedBytes: number; quotaBytes: number };
+
+export async function storageUse(organisationId: string, store: StagingStore): Promise<StorageUse> {
+  const [org] = await db().select({ quota: organisations.storageQuotaBytes }).from(organisations).where(eq(organisations.id, organisationId));
+  const [stored] = await db()
+    .select({ bytes: sql<string>`coalesce(sum(${recordings.sizeBytes}), 0)` })
+    .from(recordings)
+    .where(and(eq(recordings.organisationId, organisationId), isNull(recordings.duplicateOfId), isNull(recordings.deletedAt)));
+  let reservedBytes = 0;
+  const names = new Set(await readdir(store.directory).catch(() => [] as string[]));
+  for (const name of names) {
+    // an upload still in the folder has both its data file and its info file
+    if (!name.endsWith(".json") || !names.has(name.slice(0, -5))) continue;
+    const info = await store.readInfo(name.slice(0, -5));
+    if (info?.metadata?.cairnOrg === organisationId && !info.metadata.cairnDone) reservedBytes += info.size ?? 0;
+  }
+  return { storedBytes: Number(stored.bytes), reservedBytes, quotaBytes: org?.quota ?? env().ORG_QUOTA_BYTES };
+}
+
+/** Refuses (413) an upload of `bytes` that would take the organisation past its quota. */
+export async function assertWithinQuota(organisationId: string, store: StagingStore, bytes: number, fileName: string): Promise<void> {
+  const use = await storageUse(organisationId, store);
+  const free = Math.max(0, use.quotaBytes - use.storedBytes - use.reservedBytes);
+  if (bytes > free) {
+    throw new UploadRefusal(
+      "payload_too_large",
+      `“${fileName}” (${formatBytes(bytes)}) does not fit in the organisation's storage quota: ${formatBytes(free)} of ${formatBytes(use.quotaBytes)} is free (uploads in progress count in full). Ask the owner to free space or raise the quota.`,
+    );
+  }
+}

@@ -1,0 +1,101 @@
+// Recordings of a flight or a job (or the whole organisation), for the recordings table: name,
+// size, kind, duration when known, processing state and progress, hash and tags; filtered, sorted
+// and paged on the server.
+import { and, asc, eq, exists, ilike, isNull, or, sql, type AnyColumn, type SQL } from "drizzle-orm";
+import { z } from "zod";
+import { db } from "@/db/client";
+import { flights, jobs, recordingTags, recordings, tags, users } from "@/db/schema";
+import { listQuery } from "@/lib/api/with-org";
+import { pageOf, totalCount } from "@/lib/api/list";
+
+export const RECORDING_STATES = ["waiting", "processing", "ready", "failed"] as const;
+export const RECORDING_KINDS = ["raw_h264", "mp4", "mov", "jpeg"] as const;
+
+export const recordingListQuery = listQuery.extend({
+  flightId: z.string().uuid("Not a flight id").optional(),
+  jobId: z.string().uuid("Not a job id").optional(),
+  state: z.enum(RECORDING_STATES).optional(),
+  kind: z.enum(RECORDING_KINDS).optional(),
+  tag: z.string().trim().min(1).max(40).optional(),
+  sort: z.enum(["sequence", "name", "size", "kind", "duration", "state", "recordedAt", "uploadedAt"]).optional(),
+});
+export type RecordingListQuery = z.infer<typeof recordingListQuery>;
+
+const tagNames = sql<string[]>`coalesce((
+  select array_agg(${tags.name} order by lower(${tags.name}))
+  from ${recordingTags} join ${tags} on ${tags.id} = ${recordingTags.tagId}
+  where ${recordingTags.recordingId} = ${recordings.id}
+), '{}')`;
+
+export const recordingColumns = {
+  id: recordings.id,
+  originalName: recordings.originalName,
+  relativePath: recordings.relativePath,
+  sizeBytes: recordings.sizeBytes,
+  kind: recordings.kind,
+  sha256: recordings.sha256,
+  durationSec: recordings.durationSec,
+  state: recordings.state,
+  progress: recordings.progress,
+  failureReason: recordings.failureReason,
+  duplicateOfId: recordings.duplicateOfId,
+  flightId: recordings.flightId,
+  flownOn: flights.flownOn,
+  jobId: recordings.jobId,
+  jobTitle: jobs.title,
+  sequenceIndex: recordings.sequenceIndex,
+  recorderModifiedAt: recordings.recorderModifiedAt,
+  createdAt: recordings.createdAt,
+  uploadedByName: users.name,
+  tags: tagNames,
+};
+
+const SORTABLE: Record<NonNullable<RecordingListQuery["sort"]>, SQL | AnyColumn> = {
+  sequence: recordings.sequenceIndex,
+  name: sql`lower(${recordings.originalName})`,
+  size: recordings.sizeBytes,
+  kind: recordings.kind,
+  duration: recordings.durationSec,
+  state: recordings.state,
+  recordedAt: recordings.recorderModifiedAt,
+  uploadedAt: recordings.createdAt,
+};
+
+export async function listRecordings(organisationId: string, q: RecordingListQuery) {
+  const where: (SQL | undefined)[] = [eq(recordings.organisationId, organisationId), isNull(recordings.deletedAt)];
+  if (q.flightId) where.push(eq(recordings.flightId, q.flightId));
+  if (q.jobId) where.push(eq(recordings.jobId, q.jobId));
+  if (q.state) where.push(eq(recordings.state, q.state));
+  if (q.kind) where.push(eq(recordings.kind, q.kind));
+  if (q.tag) {
+    where.push(
+      exists(
+        db()
+          .select({ one: sql`1` })
+          .from(recordingTags)
+          .innerJoin(tags, eq(tags.id, recordingTags.tagId))
+          .where(and(eq(recordingTags.recordingId, recordings.id), sql`lower(${tags.name}) = lower(${q.tag})`)),
+      ),
+    );
+  }
+  const text = q.q?.trim();
+  if (text) {
+    // LIKE wildcards in the search mean themselves
+    const pattern = `%${text.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
+    where.push(or(ilike(recordings.originalName, pattern), ilike(recordings.relativePath, pattern), eq(recordings.sha256, text.toLowerCase())));
+  }
+  const sortCol = SORTABLE[q.sort ?? "sequence"];
+  const dir = q.dir === "desc" ? sql`desc nulls last` : sql`asc nulls last`;
+  const rows = await db()
+    .select({ ...recordingColumns, total: totalCount })
+    .from(recordings)
+    .innerJoin(flights, eq(flights.id, recordings.flightId))
+    .innerJoin(jobs, eq(jobs.id, recordings.jobId))
+    .leftJoin(users, eq(users.id, recordings.uploadedBy))
+    .where(and(...where))
+    // the flight's order breaks ties, then the upload time, so paging is stable
+    .orderBy(sql`${sortCol} ${dir}`, asc(recordings.sequenceIndex), asc(recordings.createdAt), asc(recordings.id))
+    .limit(pageOf(q).limit)
+    .offset(pageOf(q).offset);
+  return { items: rows.map(({ total: _t, ...r }) => r), total: rows[0]?.total ?? 0 };
+}

@@ -1,0 +1,118 @@
+// Shared by the ingest tests: tus-js-client (an independent tus implementation) driving our endpoint
+// over real HTTP, raw protocol requests, and looks into the staging folder and the store.
+import { createReadStream } from "node:fs";
+import { readdir, stat } from "node:fs/promises";
+import path from "node:path";
+import * as tus from "tus-js-client";
+import { and, eq } from "drizzle-orm";
+import { db } from "@/db/client";
+import { recordings } from "@/db/schema";
+import { env } from "@/lib/config/env";
+import { sessionCookie, type Actor } from "@/tests/support/session";
+
+export type Target = { jobId: string; flightId: string };
+
+export function metadataFor(target: Target, filename: string, extra: Record<string, string> = {}): Record<string, string> {
+  return { jobId: target.jobId, flightId: target.flightId, filename, filetype: "", relativePath: "null", ...extra };
+}
+
+export async function cookieOf(actor: Actor): Promise<Record<string, string>> {
+  return actor ? { cookie: await sessionCookie(actor) } : {};
+}
+
+export type TusRun = { url: string; headers: Record<string, string>; progress: number[] };
+
+/**
+ * Uploads a file (path) or a buffer with tus-js-client. `abortAfterBytes` aborts the upload once
+ * tus-js-client reports that many bytes sent and resolves with what happened so far.
+ */
+export function tusUpload(opts: {
+  endpoint: string;
+  source: string | Buffer;
+  metadata: Record<string, string>;
+  headers: Record<string, string>;
+  chunkSize?: number;
+  uploadUrl?: string;
+  retryDelays?: number[];
+  abortAfterBytes?: number;
+}): Promise<TusRun> {
+  return new Promise((resolve, reject) => {
+    const progress: number[] = [];
+    let aborted = false;
+    const input = typeof opts.source === "string" ? createReadStream(opts.source) : opts.source;
+    const upload: tus.Upload = new tus.Upload(input as unknown as Buffer, {
+      endpoint: `${opts.endpoint}/api/uploads`,
+      uploadUrl: opts.uploadUrl ?? null,
+      chunkSize: opts.chunkSize ?? 4 * 1024 * 1024,
+      metadata: opts.metadata,
+      headers: opts.headers,
+      retryDelays: opts.retryDelays ?? [],
+      storeFingerprintForResuming: false,
+      onProgress: (sent) => {
+        progress.push(sent);
+        if (opts.abortAfterBytes !== undefined && !aborted && sent >= opts.abortAfterBytes) {
+          aborted = true;
+          void upload.abort().then(() => resolve({ url: upload.url!, headers: {}, progress }));
+        }
+      },
+      onSuccess: ({ lastResponse }) => {
+        const headers: Record<string, string> = {};
+        for (const h of ["Cairn-Upload-Outcome", "Cairn-Recording-Id", "Cairn-Original-SHA256", "Cairn-Duplicate-Of", "Upload-Offset"]) {
+          const v = lastResponse.getHeader(h);
+          if (v) headers[h] = v;
+        }
+        resolve({ url: upload.url!, headers, progress });
+      },
+      onError: (err) => reject(err),
+    });
+    upload.start();
+  });
+}
+
+/** A raw request to the endpoint with the tus version header. */
+export async function tusRequest(
+  base: string,
+  method: string,
+  urlPath: string,
+  opts: { headers?: Record<string, string>; body?: Uint8Array | string; tus?: boolean } = {},
+): Promise<Response> {
+  const headers: Record<string, string> = { ...(opts.tus === false ? {} : { "Tus-Resumable": "1.0.0" }), ...opts.headers };
+  return fetch(`${base}${urlPath}`, { method, headers, body: opts.body as BodyInit | undefined });
+}
+
+/** tus Upload-Metadata header value: key base64(value), comma-separated. */
+export function encodeMetadata(m: Record<string, string>): string {
+  return Object.entries(m)
+    .map(([k, v]) => `${k} ${Buffer.from(v, "utf8").toString("base64")}`)
+    .join(",");
+}
+
+export const uploadIdOf = (url: string) => url.split("/").pop()!;
+
+/** Every file under a folder, relative paths. */
+export async function listFiles(dir: string): Promise<string[]> {
+  const out: string[] = [];
+  async function walk(d: string) {
+    let entries;
+    try {
+      entries = await readdir(d, { withFileTypes: true });
+    } catch {
+      return;
+    }
+    for (const e of entries) {
+      const p = path.join(d, e.name);
+      if (e.isDirectory()) await walk(p);
+      else out.push(path.relative(dir, p));
+    }
+  }
+  await walk(dir);
+  return out.sort();
+}
+
+export const storeFiles = () => listFiles(env().storageDir);
+export const stagingFiles = () => listFiles(env().uploadDir);
+export const stagedDataSize = (uploadId: string) => stat(path.join(env().uploadDir, uploadId)).then((s) => s.size, () => null);
+
+export async function recordingsOf(flightId: string) {
+  return db().select().from(recordings).where(and(eq(recordings.flightId, flightId)));
+}
