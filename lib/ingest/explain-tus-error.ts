@@ -35,7 +35,7 @@ export function explainTusError(err: Error | TusError, maxBytes: number): TusErr
     case ERRORS.INVALID_CONTENT_TYPE.body:
       return json("unsupported_media_type", "PATCH requests need Content-Type: application/offset+octet-stream");
     case ERRORS.INVALID_TERMINATION.body:
-      return json("conflict", "A finished upload cannot be cancelled: its recording is stored");
+      return json("conflict", "A finished upload cannot be cancelled: its recording is stored or being stored");
     case ERRORS.ABORTED.body:
       return json("bad_request", "The request was interrupted; the upload can continue from the server's offset");
   }

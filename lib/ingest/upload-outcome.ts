@@ -1,6 +1,11 @@
 // What became of an upload, as the uploader shows it: still receiving, being stored, stored with
 // its hash, the same bytes as a recording the organisation already holds, or refused with a reason.
-// The same answer comes back in the last PATCH's headers and from GET /api/uploads/<id>.
+// The same answer comes back in the last PATCH's headers (Cairn-Upload-Outcome, Cairn-Recording-Id,
+// Cairn-Original-SHA256, Cairn-Duplicate-Of; a refusal is the PATCH's 422 JSON body) and from
+// GET /api/uploads/<id>. The GET exists because the last PATCH's response can be lost (the link drops
+// just then) and tus clients do not hand error bodies to the page reliably. It reads durable records
+// only: the recording row (stored, or filed as a linked duplicate), the custody event of a duplicate
+// the flight already held, or the tombstone in the staging folder (refused; kept 14 days).
 import { and, eq } from "drizzle-orm";
 import { alias } from "drizzle-orm/pg-core";
 import { db } from "@/db/client";
