@@ -56,6 +56,16 @@ async function renditionRows(id: string) {
 }
 
 beforeAll(async () => {
+  // Start from a quiet queue: earlier test files in the same run leave jobs in Redis and rows in
+  // "waiting" (with fake originals) that a spawned worker would process first, and its reconciler would
+  // queue again, so the job under test could wait behind them past its deadline.
+  const redis = new IORedis(TEST_ENV.REDIS_URL);
+  await redis.flushdb();
+  await redis.quit();
+  await db()
+    .update(recordings)
+    .set({ state: "failed", failureReason: "left over by an earlier test file" })
+    .where(inArray(recordings.state, ["waiting", "processing"]));
   orgId = await demoOrganisationId();
   stream = await makeRawH264({ width: 432, height: 240, fps: 30, seconds: 20, gop: 30 });
   shortStream = await makeRawH264({ width: 432, height: 240, fps: 30, seconds: 2 });
