@@ -9,6 +9,6 @@ if redis-cli -h 127.0.0.1 -p "$REDIS_PORT" ping >/dev/null 2>&1; then
   redis-cli -h 127.0.0.1 -p "$REDIS_PORT" shutdown >/dev/null 2>&1 || true; log "Redis stopped"
 fi
 if [ -f "$DATA/fake-smtp.pid" ]; then
-  kill "$(cat "$DATA/fake-smtp.pid")" 2>/dev/null && log "fake mail server stopped" || true
+  kill -TERM -- "-$(cat "$DATA/fake-smtp.pid")" 2>/dev/null && log "fake mail server stopped" || true
   rm -f "$DATA/fake-smtp.pid"
 fi

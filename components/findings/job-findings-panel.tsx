@@ -10,12 +10,12 @@ import { FindingNote } from "./finding-note";
 import { FindingStill } from "./finding-still";
 import { useFindings } from "./use-findings";
 
-export function JobFindingsPanel({ jobId, canWrite = false }: { jobId: string; canWrite?: boolean }) {
+export function JobFindingsPanel({ jobId, canWrite = false, hideTitle = false }: { jobId: string; canWrite?: boolean; hideTitle?: boolean }) {
   const q = useFindings({ jobId });
   const items = q.data?.items ?? [];
   return (
     <section aria-labelledby="job-findings-title" className="flex flex-col gap-3" data-testid="job-findings">
-      <h2 id="job-findings-title" className="text-lg font-semibold">
+      <h2 id="job-findings-title" className={hideTitle ? "sr-only" : "text-lg font-semibold"}>
         Findings
       </h2>
       {q.error && <p role="alert">{q.error.message}</p>}

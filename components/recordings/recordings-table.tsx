@@ -4,6 +4,7 @@
 // processed), hash, tags (add/remove), and the original's download. Filters and sorting run on
 // the server (GET /api/recordings).
 import { keepPreviousData, useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
+import Link from "next/link";
 import { useState } from "react";
 import { fetchJson } from "@/components/fetch-json";
 import { EmptyState } from "@/components/ui/empty-state";
@@ -291,7 +292,9 @@ export function RecordingsTable({
                   <tr key={r.id} data-recording-id={r.id} className="border-b border-line/60 align-top last:border-0 hover:bg-paper-2/60">
                     <td className="px-3 py-2 text-ink-2">{r.sequenceIndex + 1}</td>
                     <td className="px-3 py-2">
-                      <span className="font-medium break-all">{r.originalName}</span>
+                      <Link href={`/recordings/${r.id}`} className="font-medium break-all text-lake underline-offset-2 hover:underline">
+                        {r.originalName}
+                      </Link>
                       {r.relativePath && r.relativePath !== r.originalName && <span className="block font-mono text-xs break-all text-ink-2">{r.relativePath}</span>}
                       {r.duplicateOfId && <span className="block text-xs text-ink-2">Same bytes as a recording already stored; no second copy kept</span>}
                     </td>

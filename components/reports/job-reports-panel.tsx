@@ -33,7 +33,7 @@ const STATE_WORD: Record<ReportItem["state"], string> = {
 };
 const isoMinute = (s: string) => new Date(s).toISOString().replace("T", " ").slice(0, 16) + " UTC";
 
-export function JobReportsPanel({ jobId, canBuild, canApprove }: { jobId: string; canBuild: boolean; canApprove: boolean }) {
+export function JobReportsPanel({ jobId, canBuild, canApprove, hideTitle = false }: { jobId: string; canBuild: boolean; canApprove: boolean; hideTitle?: boolean }) {
   const qc = useQueryClient();
   const list = useQuery({
     queryKey: ["reports", jobId],
@@ -48,7 +48,7 @@ export function JobReportsPanel({ jobId, canBuild, canApprove }: { jobId: string
   return (
     <section aria-labelledby="reports-title" className="flex flex-col gap-3" data-testid="job-reports">
       <div className="flex flex-wrap items-center gap-3">
-        <h2 id="reports-title" className="text-lg font-semibold">
+        <h2 id="reports-title" className={hideTitle ? "sr-only" : "text-lg font-semibold"}>
           Inspection report
         </h2>
         {canBuild && (

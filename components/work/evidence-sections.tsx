@@ -16,9 +16,9 @@ export function FlightRecordingsSection({ flight, viewer }: FlightSectionProps) 
 }
 
 export function JobFindingsSection({ job, viewer }: JobSectionProps) {
-  return <JobFindingsPanel jobId={job.id} canWrite={can(viewer.role, "findings.write")} />;
+  return <JobFindingsPanel jobId={job.id} canWrite={can(viewer.role, "findings.write")} hideTitle />;
 }
 
 export function JobReportsSection({ job, viewer }: JobSectionProps) {
-  return <JobReportsPanel jobId={job.id} canBuild={can(viewer.role, "reports.build")} canApprove={can(viewer.role, "reports.approve")} />;
+  return <JobReportsPanel jobId={job.id} canBuild={can(viewer.role, "reports.build")} canApprove={can(viewer.role, "reports.approve")} hideTitle />;
 }
