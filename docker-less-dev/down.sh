@@ -8,7 +8,10 @@ fi
 if redis-cli -h 127.0.0.1 -p "$REDIS_PORT" ping >/dev/null 2>&1; then
   redis-cli -h 127.0.0.1 -p "$REDIS_PORT" shutdown >/dev/null 2>&1 || true; log "Redis stopped"
 fi
-if [ -f "$DATA/fake-smtp.pid" ]; then
-  kill -TERM -- "-$(cat "$DATA/fake-smtp.pid")" 2>/dev/null && log "fake mail server stopped" || true
-  rm -f "$DATA/fake-smtp.pid"
+# the mail server runs in a process group of its own (up.sh): stop the whole group, found through
+# this clone's own tsx loader path so another checkout's server is never touched
+smtp_pid=$(pgrep -f "$ROOT/node_modules/tsx/dist/loader.mjs docker-less-dev/fake-smtp.ts" | head -n 1 || true)
+if [ -n "$smtp_pid" ]; then
+  pgid=$(ps -o pgid= -p "$smtp_pid" | tr -d ' ')
+  kill -TERM -- "-$pgid" 2>/dev/null && log "fake mail server stopped" || true
 fi

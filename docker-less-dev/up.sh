@@ -62,7 +62,7 @@ start_smtp() {
   fi
   mkdir -p "$DATA/mail"
   # its own process group, so stopping it also stops the node process that tsx starts
-  (cd "$ROOT" && setsid nohup node_modules/.bin/tsx docker-less-dev/fake-smtp.ts >>"$DATA/logs/fake-smtp.log" 2>&1 </dev/null & echo $! > "$DATA/fake-smtp.pid")
+  (cd "$ROOT" && setsid nohup node_modules/.bin/tsx docker-less-dev/fake-smtp.ts >>"$DATA/logs/fake-smtp.log" 2>&1 </dev/null &)
   for _ in $(seq 1 100); do (exec 3<>"/dev/tcp/127.0.0.1/$SMTP_PORT") 2>/dev/null && break; sleep 0.1; done
   log "fake mail server on 127.0.0.1:$SMTP_PORT (messages in $DATA/mail)"
 }
