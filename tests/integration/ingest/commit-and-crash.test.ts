@@ -149,7 +149,7 @@ async function stageComplete(data: Buffer, target: Target, filename: string): Pr
 }
 const randomHexId = () => [...crypto.getRandomValues(new Uint8Array(16))].map((b) => b.toString(16).padStart(2, "0")).join("");
 const uploadRows = (uploadId: string) => db().select().from(recordings).where(eq(recordings.uploadId, uploadId));
-const custodyFor = (recordingId: string) => db().select().from(custodyEvents).where(eq(custodyEvents.evidenceId, recordingId));
+const custodyFor = (recordingId: string) => db().select().from(custodyEvents).where(eq(custodyEvents.evidenceId, recordingId)).orderBy(custodyEvents.seq);
 
 describe("a crash at each step of the commit", () => {
   it("a failed transaction leaves no row and no stored file; the bytes go back to staging and a retry commits them", async () => {

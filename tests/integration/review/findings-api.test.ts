@@ -163,7 +163,7 @@ describe("editing and deleting keep the history", () => {
     expect(row.deletedAt).not.toBeNull();
     const h = await (await history.GET(await req(actors.owner, "GET", "/x"), route({ id: f.id }))).json();
     expect(h.items.at(-1)).toMatchObject({ version: 2, action: "deleted", snapshot: { reason: "duplicate of another finding" } });
-    const events = await db().select({ t: s.custodyEvents.eventType }).from(s.custodyEvents).where(eq(s.custodyEvents.evidenceId, f.id));
+    const events = await db().select({ t: s.custodyEvents.eventType }).from(s.custodyEvents).where(eq(s.custodyEvents.evidenceId, f.id)).orderBy(s.custodyEvents.seq);
     expect(events.map((e) => e.t)).toEqual(["finding_created", "finding_deleted"]);
     expect((await one.DELETE(await req(actors.owner, "DELETE", "/x"), route({ id: f.id }))).status).toBe(404);
   });
