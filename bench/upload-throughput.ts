@@ -9,20 +9,25 @@
 //   CAIRN_TEST_SLOT=2 npx tsx bench/upload-throughput.ts
 // Options (environment):
 //   BENCH_MB=1024        size of the upload in MiB (default 1024)
-//   BENCH_ROUNDS=2       alternating rounds of baseline and tus (default 2; medians printed)
+//   BENCH_ROUNDS=3       rounds of every side, in an order that turns each round (default 3; medians
+//                        printed, with the range of the per-round ratios)
+//   BENCH_CHUNKS_MB=16,32  further PATCH sizes to compare with the uploader's (MiB, comma-separated)
 //   BENCH_TARGET=node|next  the web process: the stand-alone server around the same route module
 //                        (tests/support/upload-server.ts, default) or `next start` on the slot's build
 //
 // What each side does per upload:
 //   baseline  one PUT, body streamed to a file, fsync, 201.
 //   tus       tus-js-client: POST, then PATCHes (each authorised, written, hashed as it arrives,
-//             fsynced before its offset is acknowledged), then the commit: content check, rename
-//             into the store, one transaction (recording row + custody event), enqueue. Timed until
-//             tus-js-client reports success, so the commit is included. Two variants: the whole
-//             file in one PATCH (like-for-like with the single PUT), and the browser uploader's
-//             8 MiB PATCHes.
-//   context   the bare server again, fed the same 8 MiB pieces (each written in place and fsynced):
+//             synced in the background as it arrives and fsynced before its offset is
+//             acknowledged), then the commit: content check, rename into the store, one transaction
+//             (recording row + custody event), enqueue. Timed until tus-js-client reports success,
+//             so the commit is included. Two variants: the whole file in one PATCH (like-for-like
+//             with the single PUT), and the browser uploader's UPLOAD_CHUNK_BYTES PATCHes; more
+//             with BENCH_CHUNKS_MB.
+//   context   the bare server again, fed the uploader's pieces (each written in place and fsynced):
 //             what cutting the transfer into acknowledged pieces costs without any tus code.
+// The shared disk of a small virtual machine varies a lot from one minute to the next: rounds turn
+// the order of the sides, and each ratio is printed with the range of its per-round ratios.
 import { spawn, type ChildProcess } from "node:child_process";
 import { createReadStream, createWriteStream, existsSync } from "node:fs";
 import { mkdir, open, readFile, rm, stat } from "node:fs/promises";
@@ -85,7 +90,7 @@ async function main() {
   const tus = await import("tus-js-client");
 
   const mib = Number(process.env.BENCH_MB ?? 1024);
-  const rounds = Number(process.env.BENCH_ROUNDS ?? 2);
+  const rounds = Number(process.env.BENCH_ROUNDS ?? 3);
   const size = mib * 1024 * 1024;
   const distDir = process.env.NEXT_DIST_DIR ?? TEST_ENV.NEXT_DIST_DIR;
   const target = (process.env.BENCH_TARGET ?? "node") as "node" | "next";
@@ -191,44 +196,64 @@ async function main() {
       upload.start();
     });
 
-  // one PATCH for the whole file is the like-for-like of the single PUT; 8 MiB PATCHes are what the
-  // browser uploader sends (a dropped link then costs at most one chunk)
-  const variants: { label: string; chunk: number }[] = [
-    { label: "tus, one PATCH (like-for-like)", chunk: Number.POSITIVE_INFINITY },
-    { label: `tus, ${UPLOAD_CHUNK_BYTES / 1024 / 1024} MiB PATCHes (uploader)`, chunk: UPLOAD_CHUNK_BYTES },
+  // One PATCH for the whole file is the like-for-like of the single PUT; UPLOAD_CHUNK_BYTES PATCHes
+  // are what the browser uploader sends. BENCH_CHUNKS_MB adds other piece sizes for comparison.
+  const mb = (bytes: number) => `${bytes / 1024 / 1024} MiB`;
+  const extraChunks = (process.env.BENCH_CHUNKS_MB ?? "")
+    .split(",")
+    .filter(Boolean)
+    .map((m) => Number(m) * 1024 * 1024)
+    .filter((c) => c !== UPLOAD_CHUNK_BYTES);
+  type Side = { label: string; kind: "baseline" | "pieces" | "tus"; chunk: number; uploader?: boolean; run: () => Promise<number>; times: number[] };
+  const sides: Side[] = [
+    { label: "baseline, plain streaming PUT + fsync", kind: "baseline", chunk: Infinity, run: putOnce, times: [] },
+    { label: `(context) bare server, ${mb(UPLOAD_CHUNK_BYTES)} PUTs + fsync`, kind: "pieces", chunk: UPLOAD_CHUNK_BYTES, run: () => putPieces(UPLOAD_CHUNK_BYTES), times: [] },
+    { label: "tus, one PATCH (like-for-like)", kind: "tus", chunk: Infinity, run: () => freshen().then(() => tusOnce(Infinity)), times: [] },
+    ...[UPLOAD_CHUNK_BYTES, ...extraChunks].map(
+      (chunk): Side => ({
+        label: `tus, ${mb(chunk)} PATCHes${chunk === UPLOAD_CHUNK_BYTES ? " (uploader)" : ""}`,
+        kind: "tus",
+        chunk,
+        uploader: chunk === UPLOAD_CHUNK_BYTES,
+        run: () => freshen().then(() => tusOnce(chunk)),
+        times: [],
+      }),
+    ),
   ];
-  const baseTimes: number[] = [];
-  const piecesTimes: number[] = [];
-  const tusTimes: number[][] = variants.map(() => []);
+  const median = (xs: number[]) => {
+    const s = [...xs].sort((a, b) => a - b);
+    return s.length % 2 ? s[(s.length - 1) / 2] : (s[s.length / 2 - 1] + s[s.length / 2]) / 2;
+  };
   try {
     for (let r = 0; r < rounds; r++) {
-      baseTimes.push(await putOnce());
-      piecesTimes.push(await putPieces(UPLOAD_CHUNK_BYTES));
-      const line = [`round ${r + 1}: baseline ${(mib / baseTimes[r]).toFixed(0)} MiB/s, bare server in pieces ${(mib / piecesTimes[r]).toFixed(0)} MiB/s`];
-      for (const [i, v] of variants.entries()) {
-        await freshen();
-        tusTimes[i].push(await tusOnce(v.chunk));
-        line.push(`${v.label} ${(mib / tusTimes[i][r]).toFixed(0)} MiB/s`);
-      }
-      console.log(line.join(", "));
+      // the order turns each round, so a slow spell of the shared disk does not always hit the same side
+      const order = sides.map((_, i) => sides[(i + r) % sides.length]);
+      for (const side of order) side.times.push(await side.run());
+      console.log(`round ${r + 1}: ${sides.map((s) => `${s.label} ${(mib / s.times[r]).toFixed(0)} MiB/s`).join(", ")}`);
     }
-    const median = (xs: number[]) => {
-      const s = [...xs].sort((a, b) => a - b);
-      return s.length % 2 ? s[(s.length - 1) / 2] : (s[s.length / 2 - 1] + s[s.length / 2]) / 2;
+    const base = sides[0];
+    const pieces = sides[1];
+    const rate = (s: Side) => mib / median(s.times);
+    // per-round ratios against the same round's baseline show the spread the medians hide
+    const spread = (s: Side) => {
+      const ratios = s.times.map((t, i) => base.times[i] / t);
+      return `${Math.min(...ratios).toFixed(2)}-${Math.max(...ratios).toFixed(2)}`;
     };
-    const baseRate = mib / median(baseTimes);
-    const piecesRate = mib / median(piecesTimes);
     const webPeak = await peakRssMiB(web.pid!);
     const basePeak = await peakRssMiB(baseline.pid!);
     console.log("");
     console.log(`upload of ${mib} MiB over loopback, ${rounds} rounds (median times), web process: ${target === "next" ? `next start (${distDir})` : "stand-alone server around the route module"}; load average ${os.loadavg().map((l) => l.toFixed(1)).join(" ")} on ${os.cpus().length} CPUs`);
-    console.log(`  ${"baseline, plain streaming PUT + fsync".padEnd(38)} ${baseRate.toFixed(0).padStart(5)} MiB/s  (${median(baseTimes).toFixed(2)} s)`);
-    console.log(`  ${`(context) bare server, ${UPLOAD_CHUNK_BYTES / 1024 / 1024} MiB PUTs + fsync`.padEnd(38)} ${piecesRate.toFixed(0).padStart(5)} MiB/s  (${median(piecesTimes).toFixed(2)} s)  ratio ${(piecesRate / baseRate).toFixed(2)}: what pieces of this size cost without tus`);
-    for (const [i, v] of variants.entries()) {
-      const rate = mib / median(tusTimes[i]);
-      const ratio = rate / baseRate;
-      const vsPieces = Number.isFinite(v.chunk) ? `; ${(rate / piecesRate).toFixed(2)} of the bare server in the same pieces` : "";
-      console.log(`  ${v.label.padEnd(38)} ${rate.toFixed(0).padStart(5)} MiB/s  (${median(tusTimes[i]).toFixed(2)} s)  ratio ${ratio.toFixed(2)} (target >= 0.70: ${ratio >= 0.7 ? "met" : "NOT met"})${vsPieces}`);
+    console.log(`  ${"".padEnd(40)} ${"MiB/s".padStart(5)}  ${"median".padStart(8)}  ratio (per-round range)`);
+    for (const s of sides) {
+      const ratio = rate(s) / rate(base);
+      const head = `  ${s.label.padEnd(40)} ${rate(s).toFixed(0).padStart(5)}  ${`${median(s.times).toFixed(2)} s`.padStart(8)}`;
+      if (s === base) console.log(head);
+      else if (s === pieces) console.log(`${head}  ${ratio.toFixed(2)} (${spread(s)}): what pieces of this size cost without tus`);
+      else {
+        const target = s.chunk === Infinity || s.uploader ? ` target >= 0.70: ${ratio >= 0.7 ? "met" : "NOT met"}` : "";
+        const vsPieces = s.chunk === UPLOAD_CHUNK_BYTES ? `; ${(rate(s) / rate(pieces)).toFixed(2)} of the bare server in the same pieces` : "";
+        console.log(`${head}  ${ratio.toFixed(2)} (${spread(s)})${target}${vsPieces}`);
+      }
     }
     console.log(`  peak RSS (VmHWM) of the web process: ${webPeak.toFixed(0)} MiB = ${(webPeak * 1.048576).toFixed(0)} MB (target < 300 MB: ${webPeak * 1.048576 < 300 ? "met" : "NOT met"}); baseline server: ${basePeak.toFixed(0)} MiB`);
   } finally {
