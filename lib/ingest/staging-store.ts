@@ -1,4 +1,4 @@
-// The tus staging folder: @tus/file-store's FileStore with three changes Cairn needs.
+// The tus staging folder: @tus/file-store's FileStore with the changes Cairn needs.
 //
 // 1. Bytes are hashed as they arrive. Each PATCH's bytes pass through a running SHA-256 on their
 //    way to disk, so the commit at the end does not read a multi-GB file a second time. The running
@@ -11,6 +11,9 @@
 // 3. A settled upload keeps its info file as a record (a "tombstone": stored, duplicate or refused)
 //    after its data has left the folder. A client retrying after a lost response then learns that
 //    the upload is complete (HEAD answers the full offset) instead of starting it again.
+// 4. A PATCH cut off by the client (a dropped link, a pause) keeps the bytes that arrived, and its
+//    running hash: they are a true prefix of the file, and the resumed upload goes on from there.
+//    A PATCH that breaks the protocol (more bytes than allowed) keeps nothing.
 import { createHash, type Hash } from "node:crypto";
 import { open, stat, unlink } from "node:fs/promises";
 import path from "node:path";
@@ -24,6 +27,11 @@ type RunningHash = { hash: Hash; offset: number; touched: number };
 
 const WRITE_BATCH_BYTES = 1024 * 1024; // 1 MiB per writev
 const SYNC_AHEAD_BYTES = 4 * 1024 * 1024; // a background sync after every 4 MiB written (at most one at a time)
+
+/** An error tus answers with a status (the body limit, say), as opposed to a client that went away. */
+function isRefusal(err: unknown): boolean {
+  return typeof err === "object" && err !== null && typeof (err as { status_code?: unknown }).status_code === "number";
+}
 
 /** The buffers left after the first `written` bytes of a partial writev. */
 function dropWritten(buffers: Buffer[], written: number): Buffer[] {
@@ -168,6 +176,8 @@ export class StagingStore extends FileStore {
         .catch((err: unknown) => void (syncFailure ??= err))
         .finally(() => void (syncing = null));
     };
+    let diskFailed = false;
+    let sourceError: unknown = null;
     try {
       // Request bodies arrive in small pieces (~64 KiB); writing them in batches of WRITE_BATCH_BYTES
       // with one writev keeps the number of system calls (and awaits) low.
@@ -176,24 +186,44 @@ export class StagingStore extends FileStore {
       const flush = async () => {
         let position = offset + received;
         let pending = batch;
-        while (pending.length > 0) {
-          const { bytesWritten } = await fh.writev(pending, position);
-          position += bytesWritten;
-          received += bytesWritten;
-          unsynced += bytesWritten;
-          pending = dropWritten(pending, bytesWritten);
+        try {
+          while (pending.length > 0) {
+            const { bytesWritten } = await fh.writev(pending, position);
+            position += bytesWritten;
+            received += bytesWritten;
+            unsynced += bytesWritten;
+            pending = dropWritten(pending, bytesWritten);
+          }
+        } catch (err) {
+          diskFailed = true;
+          throw err;
         }
         batch = [];
         batchBytes = 0;
         syncAhead();
       };
-      for await (const chunk of readable as AsyncIterable<Buffer>) {
-        hashing?.hash.update(chunk);
-        batch.push(chunk);
-        batchBytes += chunk.length;
-        if (batchBytes >= WRITE_BATCH_BYTES) await flush();
+      try {
+        for await (const chunk of readable as AsyncIterable<Buffer>) {
+          hashing?.hash.update(chunk);
+          batch.push(chunk);
+          batchBytes += chunk.length;
+          if (batchBytes >= WRITE_BATCH_BYTES) await flush();
+        }
+      } catch (err) {
+        if (diskFailed) throw err;
+        sourceError = err;
       }
-      await flush();
+      if (sourceError && isRefusal(sourceError)) {
+        // the request broke the protocol (a body longer than allowed): none of it is kept
+        await syncing;
+        await fh.truncate(offset);
+        received = 0;
+        this.running.delete(id);
+      } else {
+        // complete, or the client went away mid-PATCH: what arrived is a true prefix of the
+        // file, so it is kept (a resumed upload goes on from there, with its running hash)
+        await flush();
+      }
       await syncing;
       if (syncFailure) throw syncFailure;
       if (fsync) await fh.sync();
@@ -205,10 +235,11 @@ export class StagingStore extends FileStore {
       await syncing; // never close the descriptor under a sync in flight
       await fh.close();
     }
-    if (hashing) {
+    if (hashing && this.running.get(id) === hashing) {
       hashing.offset = offset + received;
       hashing.touched = Date.now();
     }
+    if (sourceError) throw sourceError;
     return offset + received;
   }
 

@@ -1,7 +1,8 @@
 // The tus endpoint over real HTTP, driven by tus-js-client (an independent tus 1.0.0 client) and by
 // raw requests checked against the tus protocol (tus.io protocol.md, 1.0.0). Hashes are checked
 // with GNU coreutils' sha256sum, which shares no code with ours.
-import { readFile, stat } from "node:fs/promises";
+import { open, readFile, stat } from "node:fs/promises";
+import http from "node:http";
 import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { and, eq } from "drizzle-orm";
@@ -98,6 +99,56 @@ describe("a 200 MB recording over a dropping link", () => {
     // after the upload, HEAD still reports it complete (a client retrying late must not start over)
     expect(await headOffset(location)).toBe(size);
   }, 240_000);
+});
+
+describe("a link that drops in the middle of a PATCH", () => {
+  it("keeps the bytes that arrived; the resumed upload goes on from there and is stored byte-exact", async () => {
+    const size = 24 * 1024 * 1024;
+    const file = await makePaddedRawH264(size, "drop-mid-patch");
+    const reference = await sha256sum(file);
+    const source = await readFile(file);
+    const location = await create(size, "REC_0007.264");
+    const uploadId = uploadIdOf(location);
+
+    // one PATCH announcing the whole file; the socket dies after 10 MiB have been sent
+    const sent = 10 * 1024 * 1024;
+    const { hostname, port } = new URL(base);
+    const req = http.request({
+      host: hostname,
+      port,
+      method: "PATCH",
+      path: location,
+      headers: { ...pilot, "Tus-Resumable": "1.0.0", "Upload-Offset": "0", "Content-Type": "application/offset+octet-stream", "Content-Length": String(size) },
+    });
+    req.on("error", () => {}); // the socket is destroyed on purpose
+    await new Promise<void>((resolve) => req.write(source.subarray(0, sent), () => resolve()));
+    // wait until the server has written most of what was sent, then drop the link
+    for (let i = 0; i < 200 && ((await stagedDataSize(uploadId)) ?? 0) < sent - 2 * 1024 * 1024; i++) await new Promise((r) => setTimeout(r, 25));
+    req.destroy();
+
+    // the server settles what arrived; HEAD then reports it (never more than was sent)
+    let offset = -1;
+    for (let i = 0; i < 100; i++) {
+      const now = await headOffset(location);
+      if (now === offset) break;
+      offset = now;
+      await new Promise((r) => setTimeout(r, 50));
+    }
+    expect(offset).toBeGreaterThanOrEqual(sent - 2 * 1024 * 1024);
+    expect(offset).toBeLessThanOrEqual(sent);
+    expect(await stagedDataSize(uploadId)).toBe(offset);
+    // what was kept is exactly the start of the file
+    const fh = await open(path.join(env().uploadDir, uploadId), "r");
+    const kept = Buffer.alloc(offset);
+    await fh.read(kept, 0, offset, 0);
+    await fh.close();
+    expect(Buffer.compare(kept, source.subarray(0, offset))).toBe(0);
+
+    const resumed = await tusUpload({ endpoint: base, source: file, metadata: metadataFor(target, "REC_0007.264"), headers: pilot, uploadUrl: `${base}${location}` });
+    expect(Math.min(...resumed.progress)).toBeGreaterThanOrEqual(offset);
+    expect(resumed.headers["Cairn-Upload-Outcome"]).toBe("stored");
+    expect(resumed.headers["Cairn-Original-SHA256"]).toBe(reference);
+  }, 120_000);
 });
 
 describe("protocol", () => {

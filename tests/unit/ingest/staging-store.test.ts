@@ -7,7 +7,7 @@ import os from "node:os";
 import path from "node:path";
 import { Readable } from "node:stream";
 import { afterAll, afterEach, beforeAll, describe, expect, it, vi } from "vitest";
-import { Upload } from "@tus/server";
+import { ERRORS, Upload } from "@tus/server";
 import { StagingStore } from "@/lib/ingest/staging-store";
 import { sha256sum } from "@/tests/support/media/make-upload-fixtures";
 
@@ -107,6 +107,44 @@ describe("StagingStore", () => {
     await store.create(new Upload({ id, size: data.length, offset: 0 }));
     expect(await store.write(slowPieces(data, 64 * 1024), id, 0)).toBe(data.length);
     expect(datasync).not.toHaveBeenCalled();
+  });
+
+  it("a PATCH cut off by the client keeps what arrived, and the resumed upload still gets its running hash", async () => {
+    const store = new StagingStore(dir, { fsyncEachWrite: true });
+    const data = randomBytes(7 * 1024 * 1024);
+    const id = newId();
+    await store.create(new Upload({ id, size: data.length, offset: 0 }));
+    const cut = 3 * 1024 * 1024 + 100; // not on a batch boundary
+    const dropped = Object.assign(new Error("aborted"), { code: "ECONNRESET" });
+    const body = Readable.from(
+      (async function* () {
+        for (let at = 0; at < cut; at += 65_536) yield data.subarray(at, Math.min(at + 65_536, cut));
+        throw dropped;
+      })(),
+    );
+    await expect(store.write(body, id, 0)).rejects.toBe(dropped);
+    expect(await store.stagedSize(id)).toBe(cut);
+    // the client asks for the offset (HEAD) and sends the rest
+    expect(await store.write(pieces(data.subarray(cut), [65_536]), id, cut)).toBe(data.length);
+    expect(Buffer.compare(await readFile(store.dataPath(id)), data)).toBe(0);
+    expect(store.takeHash(id, data.length)).toBe(await sha256sum(store.dataPath(id)));
+  });
+
+  it("a PATCH refused mid-body (over the size limit) leaves the upload as it was, with no running hash", async () => {
+    const store = new StagingStore(dir, { fsyncEachWrite: true });
+    const data = randomBytes(4 * 1024 * 1024);
+    const id = newId();
+    await store.create(new Upload({ id, size: data.length + 10, offset: 0 }));
+    expect(await store.write(pieces(data.subarray(0, 1000), [1000]), id, 0)).toBe(1000);
+    const body = Readable.from(
+      (async function* () {
+        for (let at = 1000; at < data.length; at += 65_536) yield data.subarray(at, Math.min(at + 65_536, data.length));
+        throw ERRORS.ERR_MAX_SIZE_EXCEEDED;
+      })(),
+    );
+    await expect(store.write(body, id, 1000)).rejects.toBe(ERRORS.ERR_MAX_SIZE_EXCEEDED);
+    expect(await store.stagedSize(id)).toBe(1000);
+    expect(store.takeHash(id, 1000)).toBeNull();
   });
 
   it("has no running hash when it did not see every byte (another process, a restart)", async () => {
