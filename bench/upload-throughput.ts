@@ -12,8 +12,9 @@
 //   BENCH_ROUNDS=3       rounds of every side, in an order that turns each round (default 3; medians
 //                        printed, with the range of the per-round ratios)
 //   BENCH_CHUNKS_MB=16,32  further PATCH sizes to compare with the uploader's (MiB, comma-separated)
-//   BENCH_TARGET=node|next  the web process: the stand-alone server around the same route module
-//                        (tests/support/upload-server.ts, default) or `next start` on the slot's build
+//   BENCH_TARGET=next|node  the web process: `next start` on the slot's build (the default when
+//                        that build exists: `npm test` leaves one), or the stand-alone server around
+//                        the same route module (tests/support/upload-server.ts; the default otherwise)
 //
 // What each side does per upload:
 //   baseline  one PUT, body streamed to a file, fsync, 201.
@@ -93,8 +94,10 @@ async function main() {
   const rounds = Number(process.env.BENCH_ROUNDS ?? 3);
   const size = mib * 1024 * 1024;
   const distDir = process.env.NEXT_DIST_DIR ?? TEST_ENV.NEXT_DIST_DIR;
-  const target = (process.env.BENCH_TARGET ?? "node") as "node" | "next";
-  if (target === "next" && !existsSync(path.join(root, distDir, "BUILD_ID"))) throw new Error(`BENCH_TARGET=next needs a build in ${distDir}`);
+  const built = existsSync(path.join(root, distDir, "BUILD_ID"));
+  const target = (process.env.BENCH_TARGET ?? (built ? "next" : "node")) as "node" | "next";
+  if (target === "next" && !built) throw new Error(`BENCH_TARGET=next needs a build in ${distDir}`);
+  if (!process.env.BENCH_TARGET && !built) console.log(`no build in ${distDir}: measuring the stand-alone server around the route module instead of next start`);
   const webPort = E2E_PORT + 8;
   const basePort = E2E_PORT + 9;
 
@@ -250,9 +253,9 @@ async function main() {
       if (s === base) console.log(head);
       else if (s === pieces) console.log(`${head}  ${ratio.toFixed(2)} (${spread(s)}): what pieces of this size cost without tus`);
       else {
-        const target = s.chunk === Infinity || s.uploader ? ` target >= 0.70: ${ratio >= 0.7 ? "met" : "NOT met"}` : "";
+        const goal = s.chunk === Infinity || s.uploader ? ` target >= 0.70: ${ratio >= 0.7 ? "met" : "NOT met"}` : "";
         const vsPieces = s.chunk === UPLOAD_CHUNK_BYTES ? `; ${(rate(s) / rate(pieces)).toFixed(2)} of the bare server in the same pieces` : "";
-        console.log(`${head}  ${ratio.toFixed(2)} (${spread(s)})${target}${vsPieces}`);
+        console.log(`${head}  ${ratio.toFixed(2)} (${spread(s)})${goal}${vsPieces}`);
       }
     }
     console.log(`  peak RSS (VmHWM) of the web process: ${webPeak.toFixed(0)} MiB = ${(webPeak * 1.048576).toFixed(0)} MB (target < 300 MB: ${webPeak * 1.048576 < 300 ? "met" : "NOT met"}); baseline server: ${basePeak.toFixed(0)} MiB`);
