@@ -1,7 +1,8 @@
 // The organisation's storage quota: originals already stored (a duplicate stores no second copy,
-// so it does not count) plus the full declared length of every upload still in the staging folder
-// (reserved at creation, so parallel uploads cannot together overrun the quota by much).
-// A soft limit: two creations in the same instant can both pass; the next one is refused.
+// so it does not count) plus the full declared length of every upload not yet settled (reserved at
+// creation; one being committed counts until its outcome is written, so for a moment it may count
+// twice, never zero times). Checked as an upload is recorded, one organisation's uploads at a time
+// (StagingStore's admit), so parallel creations cannot together overrun the quota.
 import { readdir } from "node:fs/promises";
 import { and, eq, isNull, sql } from "drizzle-orm";
 import { db } from "@/db/client";
@@ -20,10 +21,8 @@ export async function storageUse(organisationId: string, store: StagingStore): P
     .from(recordings)
     .where(and(eq(recordings.organisationId, organisationId), isNull(recordings.duplicateOfId), isNull(recordings.deletedAt)));
   let reservedBytes = 0;
-  const names = new Set(await readdir(store.directory).catch(() => [] as string[]));
-  for (const name of names) {
-    // an upload still in the folder has both its data file and its info file
-    if (!name.endsWith(".json") || !names.has(name.slice(0, -5))) continue;
+  for (const name of await readdir(store.directory).catch(() => [] as string[])) {
+    if (!name.endsWith(".json")) continue;
     const info = await store.readInfo(name.slice(0, -5));
     if (info?.metadata?.cairnOrg === organisationId && !info.metadata.cairnDone) reservedBytes += info.size ?? 0;
   }

@@ -20,6 +20,7 @@ import path from "node:path";
 import type { Readable } from "node:stream";
 import { FileStore } from "@tus/file-store";
 import { ERRORS, Upload } from "@tus/server";
+import { OneAtATime } from "./run-one-at-a-time";
 import { settledMark, type SettledMark } from "./upload-metadata";
 import { UPLOAD_EXPIRY_MS } from "./upload-limits";
 
@@ -60,9 +61,16 @@ export type StagedInfo = {
 export class StagingStore extends FileStore {
   private readonly running = new Map<string, RunningHash>();
 
+  private readonly admissions = new OneAtATime();
+
+  /**
+   * `admit` runs before an upload's info file is written and may refuse it by throwing; for uploads
+   * of one organisation (metadata.cairnOrg) the check and the write happen one at a time, so what
+   * `admit` counted is still true when the upload is recorded (the storage quota relies on it).
+   */
   constructor(
     directory: string,
-    private readonly opts: { fsyncEachWrite?: boolean; expiryMs?: number } = {},
+    private readonly opts: { fsyncEachWrite?: boolean; expiryMs?: number; admit?: (file: Upload) => Promise<void> } = {},
   ) {
     super({ directory, expirationPeriodInMilliseconds: opts.expiryMs ?? UPLOAD_EXPIRY_MS });
   }
@@ -136,9 +144,14 @@ export class StagingStore extends FileStore {
   }
 
   override async create(file: Upload): Promise<Upload> {
-    const created = await super.create(file);
-    this.running.set(file.id, { hash: createHash("sha256"), offset: 0, touched: Date.now() });
-    return created;
+    const record = async () => {
+      await this.opts.admit?.(file);
+      const created = await super.create(file);
+      this.running.set(file.id, { hash: createHash("sha256"), offset: 0, touched: Date.now() });
+      return created;
+    };
+    const org = file.metadata?.cairnOrg;
+    return org ? this.admissions.run(org, record) : record();
   }
 
   override async remove(id: string): Promise<void> {

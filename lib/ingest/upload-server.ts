@@ -8,11 +8,13 @@
 //                                upload, the member's organisation must be the one that created it
 //                                (others get 404). A complete upload that was never committed is
 //                                committed before the request is answered.
-//   onUploadCreate               metadata, names, job and flight of the organisation, size, quota.
+//   onUploadCreate               metadata, names, job and flight of the organisation, size.
+//   store.create (admit)         the storage quota, checked and reserved in one step per organisation.
 //   onUploadFinish               the commit (settle-upload.ts); its outcome rides on the response.
 import { Server } from "@tus/server";
 import { env } from "@/lib/config/env";
 import { authorizeUploadRequest, memberOf } from "./authorize-upload-request";
+import { assertWithinQuota } from "./check-upload-quota";
 import { explainTusError } from "./explain-tus-error";
 import { readFileHead } from "./read-file-head";
 import { refusalMessage, sniffContent } from "./sniff-content";
@@ -33,11 +35,15 @@ const headChecked = new Set<string>();
 const HEAD_CHECKED_LIMIT = 10_000;
 
 export function uploadService(): UploadService {
-  if (!g.__cairnUploads) g.__cairnUploads = createUploadService(new StagingStore(env().uploadDir));
+  if (!g.__cairnUploads) g.__cairnUploads = createUploadService(env().uploadDir);
   return g.__cairnUploads;
 }
 
-export function createUploadService(store: StagingStore): UploadService {
+export function createUploadService(directory: string): UploadService {
+  // the quota is checked as the upload is recorded, one organisation's uploads at a time
+  const store: StagingStore = new StagingStore(directory, {
+    admit: (file) => assertWithinQuota(String(file.metadata?.cairnOrg), store, file.size ?? 0, file.metadata?.filename ?? file.id),
+  });
   const maxBytes = () => env().UPLOAD_MAX_BYTES;
   const server = new Server({
     path: UPLOAD_ROUTE_PATH,
@@ -87,7 +93,7 @@ export function createUploadService(store: StagingStore): UploadService {
     },
     onUploadCreate: async (req, upload) => {
       const member = await authorizeUploadRequest(req);
-      return { metadata: await validateNewUpload(member, upload, store) };
+      return { metadata: await validateNewUpload(member, upload) };
     },
     onUploadFinish: async (req, upload) => {
       headChecked.delete(upload.id);

@@ -1,20 +1,17 @@
 // The checks made when an upload is created, before a byte is stored: the size is declared and
-// not zero, the metadata is complete and its names are safe, the job and flight belong to the
-// member's organisation, and the file fits the quota. Returns the metadata to keep, with the
-// organisation and uploader added by the server.
+// not zero, the metadata is complete and its names are safe, and the job and flight belong to the
+// member's organisation. Returns the metadata to keep, with the organisation and uploader added by
+// the server. The quota comes next, as the upload is recorded (StagingStore's admit, upload-server.ts).
 import { and, eq } from "drizzle-orm";
 import { db } from "@/db/client";
 import { flights } from "@/db/schema";
 import type { Member } from "@/lib/auth/load-member";
-import { assertWithinQuota } from "./check-upload-quota";
-import type { StagingStore } from "./staging-store";
 import { parseClientMetadata, toTusMetadata } from "./upload-metadata";
 import { UploadRefusal } from "./upload-refusal";
 
 export async function validateNewUpload(
   member: Member,
   upload: { size?: number; metadata?: Record<string, string | null> },
-  store: StagingStore,
 ): Promise<Record<string, string | null>> {
   const parsed = parseClientMetadata(upload.metadata);
   if (!parsed.ok) throw new UploadRefusal("unprocessable", parsed.message, parsed.fields);
@@ -31,6 +28,5 @@ export async function validateNewUpload(
   if (!flight) throw new UploadRefusal("unprocessable", "Flight not found in your organisation", { flightId: ["Flight not found in your organisation"] });
   if (flight.jobId !== meta.jobId) throw new UploadRefusal("unprocessable", "That flight belongs to another job", { jobId: ["That flight belongs to another job"] });
 
-  await assertWithinQuota(member.organisationId, store, upload.size, meta.filename);
   return toTusMetadata({ ...meta, organisationId: member.organisationId, userId: member.userId });
 }

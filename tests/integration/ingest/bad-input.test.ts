@@ -144,4 +144,20 @@ describe("the organisation's storage quota", () => {
     await refused(() => post({ "Upload-Length": "6000000", "Upload-Metadata": encodeMetadata(metadataFor(target, "second.mp4")) }), 413, /4\.0 MB of .* is free/);
     await db().update(organisations).set({ storageQuotaBytes: null }).where(eq(organisations.id, orgId));
   });
+
+  it("creations at the same moment cannot together pass it: room for two, four asked, two created", async () => {
+    const { store } = uploadService();
+    const use = await storageUse(orgId, store);
+    await db().update(organisations).set({ storageQuotaBytes: use.storedBytes + use.reservedBytes + 10_000_000 }).where(eq(organisations.id, orgId));
+    const stagedBefore = await stagingFiles();
+    const answers = await Promise.all(
+      ["a", "b", "c", "d"].map((n) => post({ "Upload-Length": "4000000", "Upload-Metadata": encodeMetadata(metadataFor(target, `parallel-${n}.mp4`)) })),
+    );
+    expect(answers.map((r) => r.status).sort()).toEqual([201, 201, 413, 413]);
+    for (const r of answers.filter((a) => a.status === 413)) expect((await r.json()).error.message).toMatch(/2\.0 MB of .* is free/);
+    // only the two created uploads are in the folder (an info file and a data file each)
+    expect((await stagingFiles()).length).toBe(stagedBefore.length + 4);
+    expect((await storageUse(orgId, store)).reservedBytes).toBe(use.reservedBytes + 8_000_000);
+    await db().update(organisations).set({ storageQuotaBytes: null }).where(eq(organisations.id, orgId));
+  });
 });
