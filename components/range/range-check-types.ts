@@ -1,25 +1,13 @@
 // Shapes of the range-check API's answers as the browser receives them (dates as ISO text).
 import type { LinkEvent } from "@/lib/range/link-events";
+import type { RangeCheckMeasures } from "@/lib/range/range-check-measures";
 
-export type RangeCheckRow = {
+export type RangeCheckRow = RangeCheckMeasures & {
   id: string;
   flightId: string;
   recordingId: string | null;
   recordingName: string | null;
   flownOn: string;
-  event: LinkEvent;
-  atSec: number | null;
-  latitude: number | null;
-  longitude: number | null;
-  groundDistanceM: number;
-  bearingDeg: number | null;
-  heightAglM: number;
-  slantRangeM: number;
-  antennaOrientation: string | null;
-  cameraOrientation: string | null;
-  aircraft: string | null;
-  firmware: string | null;
-  notes: string | null;
   archivedAt: string | null;
   createdAt: string;
 };

@@ -9,9 +9,10 @@ import { ResourceTable } from "@/components/ui/resource-table";
 import { PageHeader } from "@/components/ui/page-header";
 import { Button } from "@/components/ui/button";
 import { Field, TextAreaField } from "@/components/ui/field";
-import { Panel, FormError } from "@/components/ui/panel";
+import { Panel } from "@/components/ui/panel";
 import { clientInput } from "@/lib/validation/work";
 import { useSave } from "./use-save";
+import { FormFooter } from "./form-footer";
 
 type ClientRow = { id: string; name: string; contactName: string | null; contactEmail: string | null; notes: string | null; siteCount: number; archivedAt: string | null };
 type Form = z.input<typeof clientInput>;
@@ -75,17 +76,7 @@ function ClientForm({ row, onClose }: { row: ClientRow | null; onClose: () => vo
         <Field label="Contact name" {...form.register("contactName")} error={e.contactName?.message} />
         <Field label="Contact e-mail" type="email" {...form.register("contactEmail")} error={e.contactEmail?.message} />
         <TextAreaField label="Notes" {...form.register("notes")} error={e.notes?.message} />
-        <FormError error={save.error} />
-        <div className="flex gap-2">
-          <Button type="submit" busy={save.isPending}>
-            {row ? "Save client" : "Create client"}
-          </Button>
-          {row && (
-            <Button type="button" variant="secondary" busy={archive.isPending} onClick={() => archive.mutate({ archived: !row.archivedAt })}>
-              {row.archivedAt ? "Restore" : "Archive"}
-            </Button>
-          )}
-        </div>
+        <FormFooter submitLabel={row ? "Save client" : "Create client"} save={save} archive={archive} record={row} />
       </form>
     </Panel>
   );

@@ -5,15 +5,15 @@ import { useMemo } from "react";
 import { useForm, useWatch } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import type { z } from "zod";
-import { Button } from "@/components/ui/button";
 import { Field, SelectField, TextAreaField } from "@/components/ui/field";
-import { Panel, FormError } from "@/components/ui/panel";
+import { Panel } from "@/components/ui/panel";
 import { ROLE_LABELS } from "@/lib/auth/permissions";
 import type { Role } from "@/db/schema/types";
 import { toMetres } from "@/lib/geo/units";
 import { altitudeForForm, flightForm, flightFormToInput, type AltitudeUnit, type FlightFormValues } from "@/lib/validation/flight-form";
 import { isoDayFromNow, type FlightInput } from "@/lib/validation/work";
 import { useSave } from "./use-save";
+import { FormFooter } from "./form-footer";
 import { useOptions, type JobOption, type MemberOption } from "./use-options";
 import { AltitudeCautions } from "./altitude-cautions";
 
@@ -138,17 +138,7 @@ export function FlightForm({
         </fieldset>
         <TextAreaField label="Launch notes" {...form.register("launchNotes")} error={e.launchNotes?.message} />
         <TextAreaField label="Notes" placeholder="Wind, light, link behaviour, anything the reviewer should know" {...form.register("notes")} error={e.notes?.message} />
-        <FormError error={save.error} />
-        <div className="flex gap-2">
-          <Button type="submit" busy={save.isPending}>
-            {row ? "Save flight" : "Log flight"}
-          </Button>
-          {row && (
-            <Button type="button" variant="secondary" busy={archive.isPending} onClick={() => archive.mutate({ archived: !row.archivedAt })}>
-              {row.archivedAt ? "Restore" : "Archive"}
-            </Button>
-          )}
-        </div>
+        <FormFooter submitLabel={row ? "Save flight" : "Log flight"} save={save} archive={archive} record={row} />
       </form>
     </Panel>
   );

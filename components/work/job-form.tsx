@@ -3,13 +3,13 @@
 import { useForm, useWatch } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import type { z } from "zod";
-import { Button } from "@/components/ui/button";
 import { Field, SelectField, TextAreaField } from "@/components/ui/field";
-import { Panel, FormError } from "@/components/ui/panel";
+import { Panel } from "@/components/ui/panel";
 import { JOB_STATUSES, JOB_STATUS_MEANING, jobInput, type JobStatus } from "@/lib/validation/work";
 import { ROLE_LABELS } from "@/lib/auth/permissions";
 import type { Role } from "@/db/schema/types";
 import { useSave } from "./use-save";
+import { FormFooter } from "./form-footer";
 import { useOptions, type MemberOption, type SiteOption } from "./use-options";
 
 export type JobFormRow = {
@@ -89,17 +89,7 @@ export function JobForm({ row, defaultSiteId, onClose, onSaved }: { row: JobForm
             {reviewers.data?.items.map(crewOption)}
           </SelectField>
         </div>
-        <FormError error={save.error} />
-        <div className="flex gap-2">
-          <Button type="submit" busy={save.isPending}>
-            {row ? "Save job" : "Create job"}
-          </Button>
-          {row && (
-            <Button type="button" variant="secondary" busy={archive.isPending} onClick={() => archive.mutate({ archived: !row.archivedAt })}>
-              {row.archivedAt ? "Restore" : "Archive"}
-            </Button>
-          )}
-        </div>
+        <FormFooter submitLabel={row ? "Save job" : "Create job"} save={save} archive={archive} record={row} />
       </form>
     </Panel>
   );

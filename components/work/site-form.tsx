@@ -3,11 +3,11 @@
 import { useForm } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import type { z } from "zod";
-import { Button } from "@/components/ui/button";
 import { Field, SelectField, TextAreaField } from "@/components/ui/field";
-import { Panel, FormError } from "@/components/ui/panel";
+import { Panel } from "@/components/ui/panel";
 import { ASSET_KINDS, ASSET_KIND_LABELS, siteInput } from "@/lib/validation/work";
 import { useSave } from "./use-save";
+import { FormFooter } from "./form-footer";
 import { useOptions, type ClientOption } from "./use-options";
 import { TIME_ZONES } from "./time-zones";
 
@@ -83,17 +83,7 @@ export function SiteForm({ row, defaultClientId, onClose }: { row: SiteRow | nul
           ))}
         </SelectField>
         <TextAreaField label="Launch-point notes" placeholder="Where to set up, hazards, access" {...form.register("launchNotes")} error={e.launchNotes?.message} />
-        <FormError error={save.error} />
-        <div className="flex gap-2">
-          <Button type="submit" busy={save.isPending}>
-            {row ? "Save site" : "Create site"}
-          </Button>
-          {row && (
-            <Button type="button" variant="secondary" busy={archive.isPending} onClick={() => archive.mutate({ archived: !row.archivedAt })}>
-              {row.archivedAt ? "Restore" : "Archive"}
-            </Button>
-          )}
-        </div>
+        <FormFooter submitLabel={row ? "Save site" : "Create site"} save={save} archive={archive} record={row} />
       </form>
     </Panel>
   );

@@ -1,28 +1,16 @@
 import { fromMetres } from "@/lib/geo";
 import { csvDocument, type CsvValue } from "./csv";
-import { LINK_EVENT_META, type LinkEvent } from "./link-events";
+import { LINK_EVENT_META } from "./link-events";
+import type { RangeCheckMeasures } from "./range-check-measures";
 
 /** One range check as the export reads it: the stored row plus the names a reader needs around it. */
-export type RangeCheckExportRow = {
+export type RangeCheckExportRow = RangeCheckMeasures & {
   id: string;
   flownOn: string;
   jobTitle: string;
   siteName: string;
   flightAircraft: string | null;
   recordingName: string | null;
-  event: LinkEvent;
-  atSec: number | null;
-  latitude: number | null;
-  longitude: number | null;
-  groundDistanceM: number;
-  bearingDeg: number | null;
-  heightAglM: number;
-  slantRangeM: number;
-  antennaOrientation: string | null;
-  cameraOrientation: string | null;
-  aircraft: string | null;
-  firmware: string | null;
-  notes: string | null;
   createdAt: Date | string;
 };
 

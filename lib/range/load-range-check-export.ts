@@ -7,6 +7,7 @@ import type { RangeCheckExportRow } from "./build-range-checks-csv";
 import type { ChartInputRow } from "./aggregate-range-chart";
 import { getRangeCheckFlightOrThrow } from "./flight-for-range-check";
 import { activeRangeChecksOf } from "./range-checks";
+import { rangeCheckMeasureColumns } from "./range-check-measures";
 
 export async function loadRangeCheckExportRows(orgId: string, flightId?: string): Promise<RangeCheckExportRow[]> {
   if (flightId) await getRangeCheckFlightOrThrow(orgId, flightId);
@@ -18,19 +19,7 @@ export async function loadRangeCheckExportRows(orgId: string, flightId?: string)
       siteName: sites.name,
       flightAircraft: flights.aircraft,
       recordingName: recordings.originalName,
-      event: rangeChecks.event,
-      atSec: rangeChecks.atSec,
-      latitude: rangeChecks.latitude,
-      longitude: rangeChecks.longitude,
-      groundDistanceM: rangeChecks.groundDistanceM,
-      bearingDeg: rangeChecks.bearingDeg,
-      heightAglM: rangeChecks.heightAglM,
-      slantRangeM: rangeChecks.slantRangeM,
-      antennaOrientation: rangeChecks.antennaOrientation,
-      cameraOrientation: rangeChecks.cameraOrientation,
-      aircraft: rangeChecks.aircraft,
-      firmware: rangeChecks.firmware,
-      notes: rangeChecks.notes,
+      ...rangeCheckMeasureColumns,
       createdAt: rangeChecks.createdAt,
     })
     .from(rangeChecks)

@@ -10,6 +10,7 @@ import { GeoInputError, fromMetres } from "@/lib/geo";
 import { rangeCheckValuesInput, type DisplayUnits, type RangeCheckCreateInput, type RangeCheckPatchInput, type RangeCheckValues } from "@/lib/validation/range-checks";
 import { computeRangeCheckFigures, type RangeCheckFigures } from "./compute-range-check";
 import { getRangeCheckFlightOrThrow, requireRecordingOfFlight, type RangeCheckFlight } from "./flight-for-range-check";
+import { rangeCheckMeasureColumns } from "./range-check-measures";
 
 export const rangeCheckColumns = {
   id: rangeChecks.id,
@@ -17,19 +18,7 @@ export const rangeCheckColumns = {
   recordingId: rangeChecks.recordingId,
   recordingName: recordings.originalName,
   flownOn: flights.flownOn,
-  event: rangeChecks.event,
-  atSec: rangeChecks.atSec,
-  latitude: rangeChecks.latitude,
-  longitude: rangeChecks.longitude,
-  groundDistanceM: rangeChecks.groundDistanceM,
-  bearingDeg: rangeChecks.bearingDeg,
-  heightAglM: rangeChecks.heightAglM,
-  slantRangeM: rangeChecks.slantRangeM,
-  antennaOrientation: rangeChecks.antennaOrientation,
-  cameraOrientation: rangeChecks.cameraOrientation,
-  aircraft: rangeChecks.aircraft,
-  firmware: rangeChecks.firmware,
-  notes: rangeChecks.notes,
+  ...rangeCheckMeasureColumns,
   archivedAt: rangeChecks.archivedAt,
   createdAt: rangeChecks.createdAt,
   updatedAt: rangeChecks.updatedAt,
