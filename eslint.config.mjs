@@ -2,5 +2,5 @@ import next from "eslint-config-next";
 
 export default [
   ...next,
-  { ignores: [".next/**", "node_modules/**", ".data/**", "db/migrations/**", "bench/out/**"] },
+  { ignores: [".next/**", ".next-test-*/**", "node_modules/**", ".data/**", "db/migrations/**", "bench/out/**"] },
 ];

@@ -3,7 +3,7 @@
 import Link from "next/link";
 import { usePathname } from "next/navigation";
 import { signOut } from "next-auth/react";
-import { useEffect, useState } from "react";
+import { useEffect, useSyncExternalStore } from "react";
 import { CairnMark } from "@/components/ui/cairn-mark";
 import { ROLE_LABELS } from "@/lib/auth/permissions";
 import type { Role } from "@/db/schema/types";
@@ -19,6 +19,27 @@ const NAV: { href: string; label: string; roles?: Role[] }[] = [
   { href: "/members", label: "Members", roles: ["owner"] },
 ];
 
+
+// The dim theme is remembered in this browser (localStorage) and shared by every open tab.
+const THEME_KEY = "cairn-theme";
+const themeListeners = new Set<() => void>();
+
+function subscribeTheme(onChange: () => void): () => void {
+  themeListeners.add(onChange);
+  window.addEventListener("storage", onChange);
+  return () => {
+    themeListeners.delete(onChange);
+    window.removeEventListener("storage", onChange);
+  };
+}
+
+const readDarkTheme = () => localStorage.getItem(THEME_KEY) === "dark";
+
+function storeDarkTheme(dark: boolean) {
+  localStorage.setItem(THEME_KEY, dark ? "dark" : "light");
+  themeListeners.forEach((l) => l());
+}
+
 export function WorkspaceShell({
   children,
   organisationName,
@@ -33,10 +54,8 @@ export function WorkspaceShell({
   role: Role;
 }) {
   const path = usePathname();
-  const [dark, setDark] = useState(false);
-  useEffect(() => {
-    setDark(localStorage.getItem("cairn-theme") === "dark");
-  }, []);
+  // the server renders daylight; the browser then reads the stored choice
+  const dark = useSyncExternalStore(subscribeTheme, readDarkTheme, () => false);
   useEffect(() => {
     document.documentElement.classList.toggle("dark", dark);
   }, [dark]);
@@ -73,10 +92,7 @@ export function WorkspaceShell({
             <button
               type="button"
               className="rounded-md border border-line px-2 py-1 text-xs"
-              onClick={() => {
-                localStorage.setItem("cairn-theme", dark ? "light" : "dark");
-                setDark(!dark);
-              }}
+              onClick={() => storeDarkTheme(!dark)}
               aria-pressed={dark}
             >
               {dark ? "Daylight" : "Dim"}
