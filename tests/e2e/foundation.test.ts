@@ -182,6 +182,16 @@ describe("foundation in the browser", () => {
     // a reviewer files no jobs and does not manage members
     expect(await page.getByRole("button", { name: "New job" }).count()).toBe(0);
     expect(await page.getByRole("link", { name: "Members" }).count()).toBe(0);
+    // the dim theme: on, remembered across a reload, off again
+    const isDim = () => page.evaluate(() => document.documentElement.classList.contains("dark"));
+    expect(await isDim()).toBe(false);
+    await page.getByRole("button", { name: "Dim" }).click();
+    await expect.poll(isDim).toBe(true);
+    await page.reload();
+    await page.getByRole("button", { name: "Daylight" }).waitFor();
+    await expect.poll(isDim).toBe(true);
+    await page.getByRole("button", { name: "Daylight" }).click();
+    await expect.poll(isDim).toBe(false);
     // the link works once
     await signOut(page);
     await page.goto(link!);
