@@ -1,7 +1,8 @@
 // Shared by the ingest tests: tus-js-client (an independent tus implementation) driving our endpoint
 // over real HTTP, raw protocol requests, and looks into the staging folder and the store.
 import { createReadStream } from "node:fs";
-import { readdir, stat } from "node:fs/promises";
+import { open, readdir, stat } from "node:fs/promises";
+import http from "node:http";
 import path from "node:path";
 import * as tus from "tus-js-client";
 import { and, eq } from "drizzle-orm";
@@ -115,4 +116,49 @@ export const stagedDataSize = (uploadId: string) => stat(path.join(env().uploadD
 
 export async function recordingsOf(flightId: string) {
   return db().select().from(recordings).where(and(eq(recordings.flightId, flightId)));
+}
+
+/**
+ * A link that drops in the middle of a PATCH: sends one PATCH announcing `announced` bytes at
+ * offset 0, writes `sent` bytes of `source`, waits until the server has staged all but the last
+ * 2 MiB of them, then destroys the socket. Resolves with the offset HEAD reports once it has stopped
+ * moving (the server settles what arrived after the drop).
+ */
+export async function dropMidPatch(opts: { base: string; location: string; source: Buffer; announced: number; sent: number; headers: Record<string, string> }): Promise<number> {
+  const { base, location, source, sent, headers } = opts;
+  const uploadId = uploadIdOf(location);
+  const { hostname, port } = new URL(base);
+  const req = http.request({
+    host: hostname,
+    port,
+    method: "PATCH",
+    path: location,
+    headers: { ...headers, "Tus-Resumable": "1.0.0", "Upload-Offset": "0", "Content-Type": "application/offset+octet-stream", "Content-Length": String(opts.announced) },
+  });
+  req.on("error", () => {}); // the socket is destroyed on purpose
+  await new Promise<void>((resolve) => req.write(source.subarray(0, sent), () => resolve()));
+  for (let i = 0; i < 200 && ((await stagedDataSize(uploadId)) ?? 0) < sent - 2 * 1024 * 1024; i++) await new Promise((r) => setTimeout(r, 25));
+  req.destroy();
+
+  let offset = -1;
+  for (let i = 0; i < 100; i++) {
+    const res = await tusRequest(base, "HEAD", location, { headers });
+    const now = Number(res.headers.get("upload-offset"));
+    if (now === offset) break;
+    offset = now;
+    await new Promise((r) => setTimeout(r, 50));
+  }
+  return offset;
+}
+
+/** The first `bytes` bytes of an upload's staged data. */
+export async function stagedPrefix(uploadId: string, bytes: number): Promise<Buffer> {
+  const fh = await open(path.join(env().uploadDir, uploadId), "r");
+  try {
+    const out = Buffer.alloc(bytes);
+    await fh.read(out, 0, bytes, 0);
+    return out;
+  } finally {
+    await fh.close();
+  }
 }
