@@ -24,6 +24,11 @@ start_postgres() {
   if as_pg "$bin/pg_ctl" -D "$PG_DATA" status >/dev/null 2>&1; then
     log "PostgreSQL already running on 127.0.0.1:$PG_PORT"
   else
+    if pg_isready -h 127.0.0.1 -p "$PG_PORT" >/dev/null 2>&1; then
+      log "port $PG_PORT already has a PostgreSQL that is not this checkout's ($PG_DATA), perhaps another checkout's:"
+      log "stop it (its docker-less-dev/down.sh), or pick other ports with CAIRN_PG_PORT / CAIRN_REDIS_PORT / CAIRN_SMTP_PORT"
+      exit 1
+    fi
     as_pg "$bin/pg_ctl" -D "$PG_DATA" -l "$PG_LOG" -w -t 60 \
       -o "-c listen_addresses=127.0.0.1 -p $PG_PORT -k $PG_RUN -c fsync=on" start >/dev/null
     log "PostgreSQL started on 127.0.0.1:$PG_PORT"
