@@ -1,10 +1,12 @@
 "use client";
-// The signed-in frame: navigation, organisation name, user menu with sign-out, dark-hangar toggle.
+// The signed-in frame: navigation, organisation name, user menu (organisation switcher, sign-out), dim toggle.
 import Link from "next/link";
 import { usePathname } from "next/navigation";
 import { signOut } from "next-auth/react";
 import { useEffect, useSyncExternalStore } from "react";
 import { CairnMark } from "@/components/ui/cairn-mark";
+import type { OrganisationChoice } from "@/lib/auth/organisations-of-user";
+import { OrganisationSwitcher } from "./organisation-switcher";
 import { ROLE_LABELS } from "@/lib/auth/permissions";
 import type { Role } from "@/db/schema/types";
 
@@ -42,13 +44,17 @@ function storeDarkTheme(dark: boolean) {
 
 export function WorkspaceShell({
   children,
+  organisationId,
   organisationName,
+  organisations,
   userName,
   userEmail,
   role,
 }: {
   children: React.ReactNode;
+  organisationId: string;
   organisationName: string;
+  organisations: OrganisationChoice[];
   userName: string;
   userEmail: string;
   role: Role;
@@ -105,6 +111,7 @@ export function WorkspaceShell({
                 <p className="font-medium">{userName}</p>
                 <p className="text-ink-2">{userEmail}</p>
                 <p className="mt-1 text-xs text-ink-2">{ROLE_LABELS[role].meaning}</p>
+                <OrganisationSwitcher currentId={organisationId} organisations={organisations} />
                 <button type="button" className="mt-3 w-full rounded-md border border-line px-3 py-2 hover:bg-paper-2" onClick={() => signOut({ callbackUrl: "/sign-in" })}>
                   Sign out
                 </button>

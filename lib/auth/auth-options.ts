@@ -1,6 +1,7 @@
 // next-auth configuration: e-mail + password, and e-mail sign-in links through our mail transport.
 // The JWT carries only the user id and the active organisation; role is read from the database
-// on every request so a changed or removed membership takes effect at once.
+// on every request so a changed or removed membership takes effect at once. The active
+// organisation is the oldest membership at sign-in, and changes through the switcher.
 import type { NextAuthOptions } from "next-auth";
 import CredentialsProvider from "next-auth/providers/credentials";
 import EmailProvider from "next-auth/providers/email";
@@ -13,6 +14,7 @@ import { verifyPassword } from "./password";
 import { hit, reset, SIGN_IN_LIMITS } from "./rate-limit";
 import { composeMail, sendMail } from "@/lib/mail/send-mail";
 import { cairnAdapter } from "./adapter";
+import { isMemberOf } from "./organisations-of-user";
 
 const credentialsSchema = z.object({ email: z.string().trim().toLowerCase().email().max(320), password: z.string().min(1).max(200) });
 
@@ -74,10 +76,16 @@ export const authOptions: NextAuthOptions = {
     }),
   ],
   callbacks: {
-    async jwt({ token, user }) {
+    async jwt({ token, user, trigger, session }) {
       if (user) {
         token.uid = user.id;
         token.org = await firstOrganisationOf(user.id);
+      }
+      // the organisation switcher (useSession().update({ organisationId })): only to an
+      // organisation the person belongs to now; anything else leaves the session as it was
+      if (trigger === "update" && typeof token.uid === "string") {
+        const wanted = (session as { organisationId?: unknown } | undefined)?.organisationId;
+        if (typeof wanted === "string" && z.string().uuid().safeParse(wanted).success && (await isMemberOf(token.uid, wanted))) token.org = wanted;
       }
       return token;
     },

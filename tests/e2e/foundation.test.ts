@@ -1,7 +1,13 @@
 // The foundation in a real browser (Debian chromium through playwright-core) against the built app:
 // the owner signs in with a password and files a client, a site, a job and a flight through the UI;
-// a reviewer signs in through an e-mail link read from the fake mailbox; both sign out.
+// a reviewer signs in through an e-mail link read from the fake mailbox; both sign out. A pilot who
+// belongs to two organisations switches between them from the user menu.
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { and, eq } from "drizzle-orm";
+import { closeDb, db } from "@/db/client";
+import { memberships, organisations } from "@/db/schema";
+import { DEMO_USERS } from "@/db/seed/demo-scenario";
+import { demoActors } from "@/tests/support/session";
 import { randomUUID } from "node:crypto";
 import type { Browser, BrowserContext, Page } from "playwright-core";
 import { launch, newContext, signInWithPassword } from "@/tests/support/browser";
@@ -21,6 +27,7 @@ beforeAll(async () => {
 });
 afterAll(async () => {
   await browser?.close();
+  await closeDb();
 });
 
 async function signOut(p: Page) {
@@ -197,5 +204,37 @@ describe("foundation in the browser", () => {
     await page.goto(link!);
     await page.waitForURL(/\/sign-in/);
     await ctx.close();
+  });
+  it("a pilot in two organisations switches between them from the user menu", async () => {
+    const actors = await demoActors();
+    const pilot = actors.pilot!;
+    const [home] = await db().select({ name: organisations.name }).from(organisations).where(eq(organisations.id, pilot.organisationId));
+    const [second] = await db().select({ id: organisations.id, name: organisations.name }).from(organisations).where(eq(organisations.id, actors.other!.organisationId));
+    await db().insert(memberships).values({ organisationId: second.id, userId: pilot.userId, role: "reviewer" }).onConflictDoNothing();
+    try {
+      ctx = await newContext(browser);
+      page = await ctx.newPage();
+      await signInWithPassword(page, DEMO_USERS.find((u) => u.role === "pilot")!.email);
+      const orgName = page.getByTestId("org-name");
+      await expect.poll(() => orgName.textContent()).toBe(home.name);
+
+      await page.getByTestId("user-menu").click();
+      const switcher = page.getByTestId("organisation-switcher");
+      expect(await switcher.locator('[aria-current="true"]').textContent()).toContain(home.name);
+      await switcher.getByRole("button", { name: `Switch to ${second.name}` }).click();
+      await page.waitForURL(/\/jobs/);
+      // the workspace now belongs to the second organisation, where this person is a reviewer
+      await expect.poll(() => orgName.textContent(), { timeout: 15_000 }).toBe(second.name);
+      expect(await page.getByTestId("user-menu").textContent()).toContain("Reviewer");
+      expect(await page.getByRole("link", { name: "Upload" }).count()).toBe(0);
+      // and back
+      await page.getByTestId("user-menu").click();
+      await page.getByTestId("organisation-switcher").getByRole("button", { name: `Switch to ${home.name}` }).click();
+      await expect.poll(() => orgName.textContent(), { timeout: 15_000 }).toBe(home.name);
+      expect(await page.getByTestId("user-menu").textContent()).toContain("Pilot");
+      await ctx.close();
+    } finally {
+      await db().delete(memberships).where(and(eq(memberships.userId, pilot.userId), eq(memberships.organisationId, second.id)));
+    }
   });
 });
