@@ -162,6 +162,19 @@ describe("building, reading back, approving and downloading a report", () => {
     expect(await buildReport({ reportId: next.id })).toBe("built");
   });
 
+  it("the database itself refuses to change or remove an approved version, even for the app's own role", async () => {
+    const [approved] = await db().select().from(s.reports).where(eq(s.reports.id, reportId));
+    expect(approved.state).toBe("approved");
+    // the trigger of migration 0002 (a bug or a hand-written UPDATE must not alter what a client was given)
+    // drizzle wraps the database's error; its cause is PostgreSQL's own message
+    const refusedWith = (text: RegExp) => ({ cause: expect.objectContaining({ message: expect.stringMatching(text), code: "42501" }) });
+    await expect(db().update(s.reports).set({ sha256: "0".repeat(64) }).where(eq(s.reports.id, reportId))).rejects.toMatchObject(refusedWith(/approved and final \(UPDATE refused\)/));
+    await expect(db().update(s.reports).set({ state: "ready" }).where(eq(s.reports.id, reportId))).rejects.toMatchObject(refusedWith(/approved and final/));
+    await expect(db().delete(s.reports).where(eq(s.reports.id, reportId))).rejects.toMatchObject(refusedWith(/approved and final \(DELETE refused\)/));
+    const [after] = await db().select().from(s.reports).where(eq(s.reports.id, reportId));
+    expect(after).toEqual(approved);
+  });
+
   it("a version whose stored PDF changed after the build cannot be approved", async () => {
     const next = await (await reportsApi.POST(await req(actors.owner, "POST", "/api/reports", { jobId }))).json();
     expect(await buildReport({ reportId: next.id })).toBe("built");
