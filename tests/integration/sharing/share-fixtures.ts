@@ -126,13 +126,13 @@ export async function makeReport(organisationId: string, jobId: string, opts: { 
 }
 
 /** A job with two recordings (A, B), one finding with a still on each, and an approved report. */
-export async function makeSharedJob(organisationId: string, opts: { playable?: Buffer; image?: Buffer; durationSec?: number } = {}) {
+export async function makeSharedJob(organisationId: string, opts: { playable?: Buffer; image?: Buffer; durationSec?: number; pdf?: Buffer } = {}) {
   const flight = await makeFlight(organisationId);
   const jobId = flight.jobId;
   const recA = await makeStoredRecording(organisationId, jobId, flight.id, { name: "tower-pass-1.264", playable: opts.playable, image: opts.image, durationSec: opts.durationSec, sequenceIndex: 0 });
   const recB = await makeStoredRecording(organisationId, jobId, flight.id, { name: "tower-pass-2.264", playable: opts.playable, image: opts.image, durationSec: opts.durationSec, sequenceIndex: 1 });
   const fA = await makeFindingWithStill(organisationId, jobId, recA.id, { startSec: 1.5, severity: "major", image: opts.image });
   const fB = await makeFindingWithStill(organisationId, jobId, recB.id, { startSec: 2.5, severity: "minor", note: "Loose ladder cage bolt", image: opts.image });
-  const { report, pdf } = await makeReport(organisationId, jobId);
+  const { report, pdf } = await makeReport(organisationId, jobId, { pdf: opts.pdf });
   return { jobId, flightId: flight.id, recA, recB, fA, fB, report, pdf };
 }
