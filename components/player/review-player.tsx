@@ -8,7 +8,7 @@ import { forwardRef, useEffect, useImperativeHandle, useRef, useState } from "re
 import videojs from "video.js";
 import "video.js/dist/video-js.css";
 import type { FrameRate } from "@/lib/timecode/frame-rate";
-import { beaconCollectionDomain } from "@/lib/playback/beacon-collection-domain";
+import { attachPlaybackAnalytics } from "./attach-playback-analytics";
 import { frameOnScreen, seekTimeForFrame } from "./frame-seek";
 import { ThumbnailPreview } from "./thumbnail-preview";
 import { PLAYBACK_RATES } from "./review-shortcuts";
@@ -138,24 +138,7 @@ export const ReviewPlayer = forwardRef<ReviewPlayerHandle, Props>(function Revie
     ro.observe(p.el());
 
     if (analytics) {
-      const domain = beaconCollectionDomain(window.location);
-      if (domain) {
-        void import("videojs-mux").then(() => {
-          const withMux = p as Player & { mux?: (options: unknown) => void };
-          if (disposed || typeof withMux.mux !== "function") return;
-          withMux.mux({
-            debug: false,
-            beaconCollectionDomain: domain,
-            data: {
-              env_key: "cairn-local",
-              player_name: "Cairn review room",
-              video_id: analytics.recordingId,
-              video_title: title,
-              viewer_user_id: analytics.viewerUserId,
-            },
-          });
-        });
-      }
+      attachPlaybackAnalytics(p, { recordingId: analytics.recordingId, title, playerName: "Cairn review room", viewerUserId: analytics.viewerUserId }, () => !disposed);
     }
     setPlayer(p);
     return () => {

@@ -5,6 +5,7 @@
 import { forwardRef, useEffect, useImperativeHandle, useRef } from "react";
 import videojs from "video.js";
 import "video.js/dist/video-js.css";
+import { attachPlaybackAnalytics } from "@/components/player/attach-playback-analytics";
 
 type Player = ReturnType<typeof videojs>;
 
@@ -21,9 +22,16 @@ type Props = {
   onDuration?: (seconds: number) => void;
   /** the source failed to load (an expired address, a revoked link): the page fetches fresh addresses */
   onSourceError?: () => void;
+  /** counts this viewing for the share link in the recording's playback analytics */
+  analytics?: { recordingId: string; title: string };
 };
 
-export const SharePlayer = forwardRef<SharePlayerHandle, Props>(function SharePlayer({ src, poster, thumbnails, label, startAt, onTime, onDuration, onSourceError }, ref) {
+/** The signed grant at the end of a share media address (/api/s/media/<grant>): the view's access token. */
+function grantOf(src: string): string | undefined {
+  return new URL(src, window.location.href).pathname.split("/").pop() || undefined;
+}
+
+export const SharePlayer = forwardRef<SharePlayerHandle, Props>(function SharePlayer({ src, poster, thumbnails, label, startAt, onTime, onDuration, onSourceError, analytics }, ref) {
   const holder = useRef<HTMLDivElement>(null);
   const player = useRef<Player | null>(null);
   const callbacks = useRef({ onTime, onDuration, onSourceError });
@@ -54,7 +62,10 @@ export const SharePlayer = forwardRef<SharePlayerHandle, Props>(function SharePl
     if (startAt) p.one("loadedmetadata", () => p.currentTime(startAt));
     p.on("error", () => callbacks.current.onSourceError?.());
     player.current = p;
+    let disposed = false;
+    if (analytics) attachPlaybackAnalytics(p, { ...analytics, playerName: "Cairn shared page", accessToken: grantOf(currentSrc.current) }, () => !disposed);
     return () => {
+      disposed = true;
       p.dispose();
       player.current = null;
     };

@@ -129,6 +129,7 @@ export function ShareViewer({ initialView, gatePath, manifestPath }: { initialVi
                   onTime={setCurrent}
                   onDuration={setDuration}
                   onSourceError={() => void refresh()}
+                  analytics={{ recordingId: recording.id, title: recording.name }}
                 />
               ) : (
                 <p className="rounded-md border border-dashed border-line px-4 py-10 text-center text-sm text-ink-2">

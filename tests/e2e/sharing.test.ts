@@ -21,7 +21,9 @@ import { makeRawH264, runTool } from "@/tests/support/media/make-h264";
 import { TEST_ENV } from "@/tests/support/test-env";
 import { readMailbox } from "@/lib/mail/read-mailbox";
 import { hashShareToken } from "@/lib/sharing/share-token";
-import { closeDb } from "@/db/client";
+import { eq } from "drizzle-orm";
+import { closeDb, db } from "@/db/client";
+import * as s from "@/db/schema";
 import { demoOrganisationId } from "@/tests/support/session";
 import { makeSharedJob, sha256 } from "@/tests/integration/sharing/share-fixtures";
 
@@ -69,15 +71,9 @@ const videoTime = (p: Page) => p.evaluate(() => document.querySelector<HTMLVideo
 beforeAll(async () => {
   const orgId = await demoOrganisationId();
   const mp4 = await playableMp4();
-  job = await makeSharedJob(orgId, { playable: mp4, image: await stillJpeg(mp4), durationSec: 4 });
+  // the fixture's approved report is a real PDF (an approved row cannot be changed afterwards)
   const pdf = await reportPdf();
-  // the report row of the fixture gets the real PDF's bytes, hash and size
-  const { db } = await import("@/db/client");
-  const s = await import("@/db/schema");
-  const { eq } = await import("drizzle-orm");
-  const { putFile } = await import("@/tests/integration/sharing/share-fixtures");
-  await putFile(job.report.storageKey!, pdf);
-  await db().update(s.reports).set({ sha256: sha256(pdf), sizeBytes: pdf.length }).where(eq(s.reports.id, job.report.id));
+  job = await makeSharedJob(orgId, { playable: mp4, image: await stillJpeg(mp4), durationSec: 4, pdf });
   job.pdf = pdf;
   browser = await launch();
 });
@@ -171,6 +167,16 @@ describe("sharing a finding's clip with a client", () => {
     expect(bytes.subarray(0, 5).toString("latin1")).toBe("%PDF-");
     expect(sha256(bytes)).toBe(sha256(job.pdf));
     expect(download.suggestedFilename()).toMatch(/\.pdf$/);
+  });
+
+  it("the client's viewing is counted for the share link in the recording's playback analytics", async () => {
+    // leaving the page ends the view, and the analytics SDK sends what it has queued
+    await clientPage.goto("about:blank");
+    const [link] = await db().select({ id: s.shareLinks.id }).from(s.shareLinks).where(eq(s.shareLinks.tokenHash, hashShareToken(shareUrl.split("/").pop()!)));
+    await expect.poll(async () => db().$count(s.playbackViews, eq(s.playbackViews.shareLinkId, link.id)), { timeout: 30_000, interval: 1000 }).toBeGreaterThan(0);
+    const [view] = await db().select().from(s.playbackViews).where(eq(s.playbackViews.shareLinkId, link.id));
+    expect(view.viewerUserId).toBeNull();
+    expect(view.watchTimeMs).toBeGreaterThan(0);
   });
 
   it("the owner sees the open and the download, revokes, and the link shows the revoked page", async () => {

@@ -1,10 +1,12 @@
 // POST /api/collector: the app's own playback-analytics collector. mux-embed posts its beacons here
-// (text/plain JSON { metadata, events }); views are stored per viewer from the session. OPTIONS: CORS.
+// (text/plain JSON { metadata, events }); views are stored per viewer: the signed-in member, or for
+// a shared page the share link its media grant names (lib/playback/share-viewer.ts). OPTIONS: CORS.
 import { ApiError, errorResponse } from "@/lib/api/errors";
 import { requireMember } from "@/lib/api/with-org";
 import { env } from "@/lib/config/env";
 import { readBeacons, BeaconError } from "@/lib/playback/read-beacons";
 import { recordPlaybackViews } from "@/lib/playback/record-playback-views";
+import { shareViewerOf } from "@/lib/playback/share-viewer";
 
 const MAX_BODY_BYTES = 600 * 1024; // mux-embed caps a beacon at 500 KB (maxPayloadKBSize)
 
@@ -38,7 +40,6 @@ export async function POST(req: Request) {
   try {
     const length = Number(req.headers.get("content-length") ?? 0);
     if (length > MAX_BODY_BYTES) throw new ApiError("payload_too_large", "Beacon too large");
-    const member = await requireMember(req);
     const text = await req.text();
     if (text.length > MAX_BODY_BYTES) throw new ApiError("payload_too_large", "Beacon too large");
     let body: unknown;
@@ -54,7 +55,24 @@ export async function POST(req: Request) {
       if (err instanceof BeaconError) throw new ApiError("bad_request", err.message);
       throw err;
     }
-    const result = await recordPlaybackViews({ organisationId: member.organisationId, userId: member.userId, shareLinkId: null }, views);
+    // a shared page's player sends its media grant with each view (no account behind it); every
+    // other view needs a signed-in member, as does a post that carries nothing at all
+    const shared = views.filter((v) => v.accessToken !== null);
+    const own = views.filter((v) => v.accessToken === null);
+    const result = { stored: 0, ignored: 0 };
+    const add = (r: { stored: number; ignored: number }) => {
+      result.stored += r.stored;
+      result.ignored += r.ignored;
+    };
+    if (own.length > 0 || shared.length === 0) {
+      const member = await requireMember(req);
+      add(await recordPlaybackViews({ organisationId: member.organisationId, userId: member.userId, shareLinkId: null }, own));
+    }
+    for (const view of shared) {
+      const viewer = await shareViewerOf(view.accessToken!, view.recordingId);
+      if (viewer) add(await recordPlaybackViews({ ...viewer, userId: null }, [view]));
+      else result.ignored += 1;
+    }
     // 200 even when some views were ignored: the SDK retries failed posts, and an unknown video
     // will not become known by retrying
     return Response.json(result, { headers: { ...cors, "Cache-Control": "no-store" } });

@@ -10,6 +10,9 @@ import { closeRedis } from "@/lib/queue/redis";
 import { env } from "@/lib/config/env";
 import { demoActors, demoOrganisationId, sessionCookie, type Actor, type DemoActorKey } from "@/tests/support/session";
 import { makeFlight } from "@/tests/support/factories";
+import { signMediaGrant, type MediaGrantKind } from "@/lib/sharing/media-grant";
+import { generateShareToken, hashShareToken } from "@/lib/sharing/share-token";
+import { makeStoredRecording } from "@/tests/integration/sharing/share-fixtures";
 
 let actors: Record<DemoActorKey, Actor>;
 let recordingId: string;
@@ -92,5 +95,65 @@ describe("collector", () => {
     expect(body.items[0]).toMatchObject({ viewerName: "Cleo Marchbank", watchTimeMs: 9000, rebufferCount: 2 });
     expect((await req(actors.other)).status).toBe(404);
     expect((await req(null)).status).toBe(401);
+  });
+});
+
+describe("views from a shared page (no account)", () => {
+  let shownId: string;
+  let hiddenId: string;
+  let linkId: string;
+  const grant = (kind: MediaGrantKind, resourceId: string, expiresAt = Math.floor(Date.now() / 1000) + 600, link = linkId) =>
+    signMediaGrant({ linkId: link, kind, resourceId, expiresAt }, env().MEDIA_SIGNING_KEY);
+  // the shared page's player sends the playable address's grant as custom_1 ("c1" once shortened)
+  const sharedEvents = (viewKey: string, recording: string, token: string) => ({
+    metadata: { transmission_timestamp: t0 + 5000 },
+    events: [{ e: "hb", xid: viewKey, vid: recording, xst: t0, uti: t0 + 5000, xwati: 5000, xtitofifr: 420, xreco: 1, xredu: 200, c1: token }],
+  });
+  const viewRow = async (viewKey: string) => (await db().select().from(s.playbackViews).where(eq(s.playbackViews.viewKey, viewKey)))[0];
+
+  beforeAll(async () => {
+    const orgId = await demoOrganisationId();
+    const flight = await makeFlight(orgId);
+    shownId = (await makeStoredRecording(orgId, flight.jobId, flight.id, { name: "SHOWN.264" })).id;
+    hiddenId = (await makeStoredRecording(orgId, flight.jobId, flight.id, { name: "HIDDEN.264" })).id;
+    const [link] = await db()
+      .insert(s.shareLinks)
+      .values({ organisationId: orgId, jobId: flight.jobId, scope: "recording", recordingId: shownId, tokenHash: hashShareToken(generateShareToken()), label: "for the client", expiresAt: new Date(Date.now() + 3600_000) })
+      .returning();
+    linkId = link.id;
+  });
+
+  it("counts a view for the share link named by a valid grant, and lists it under the link's label", async () => {
+    const res = await beacon(null, sharedEvents("shared-1", shownId, grant("playable", shownId)));
+    expect(res.status).toBe(200);
+    expect(await res.json()).toEqual({ stored: 1, ignored: 0 });
+    expect(await viewRow("shared-1")).toMatchObject({ recordingId: shownId, shareLinkId: linkId, viewerUserId: null, watchTimeMs: 5000, startupTimeMs: 420, rebufferCount: 1 });
+    const list = await viewsApi.GET(new Request(`http://localhost/api/collector/views?recordingId=${shownId}`, { headers: { cookie: await sessionCookie(actors.owner!) } }));
+    expect((await list.json()).items).toEqual([expect.objectContaining({ viewerName: null, shareLinkLabel: "for the client", watchTimeMs: 5000 })]);
+  });
+
+  it("keeps counting a long view after its 10-minute grant expired, but not a replay hours later", async () => {
+    const now = Math.floor(Date.now() / 1000);
+    expect(await (await beacon(null, sharedEvents("shared-2", shownId, grant("playable", shownId, now - 3600)))).json()).toEqual({ stored: 1, ignored: 0 });
+    expect(await (await beacon(null, sharedEvents("shared-3", shownId, grant("playable", shownId, now - 7 * 3600)))).json()).toEqual({ stored: 0, ignored: 1 });
+  });
+
+  it("ignores a forged, mismatched or out-of-scope grant, and a revoked link", async () => {
+    const good = grant("playable", shownId);
+    const forged = good.slice(0, -2) + (good.endsWith("AA") ? "BB" : "AA");
+    const cases: [string, string, string][] = [
+      ["forged signature", shownId, forged],
+      ["grant for another kind of file", shownId, grant("poster", shownId)],
+      ["grant for another recording than the beacon's", hiddenId, good],
+      ["recording outside the link's scope", hiddenId, grant("playable", hiddenId)],
+      ["not a grant at all", shownId, "hello"],
+    ];
+    for (const [what, recording, token] of cases) {
+      const res = await beacon(null, sharedEvents(`bad-${what.replace(/\W+/g, "-")}`, recording, token));
+      expect(await res.json(), what).toEqual({ stored: 0, ignored: 1 });
+    }
+    await db().update(s.shareLinks).set({ revokedAt: new Date() }).where(eq(s.shareLinks.id, linkId));
+    expect(await (await beacon(null, sharedEvents("after-revoke", shownId, good))).json()).toEqual({ stored: 0, ignored: 1 });
+    expect(await db().$count(s.playbackViews, eq(s.playbackViews.shareLinkId, linkId))).toBe(2); // shared-1 and shared-2 only
   });
 });
