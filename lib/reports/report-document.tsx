@@ -23,8 +23,8 @@ export function makeReportDocument(pdf: typeof ReactPdf): (props: ReportDocument
   const { Document, Image, Page, StyleSheet, Text, View } = pdf;
   const st = StyleSheet.create({
     page: { fontFamily: "Plex Sans", fontSize: 9.5, color: INK, paddingTop: 40, paddingBottom: 48, paddingHorizontal: 42 },
-    mono: { fontFamily: "Courier", fontSize: 8.5 },
-    hash: { fontFamily: "Courier", fontSize: 7.5 },
+    mono: { fontFamily: "Plex Mono", fontSize: 8.5 },
+    hash: { fontFamily: "Plex Mono", fontSize: 7.5 },
     h1: { fontSize: 22, fontWeight: 600, lineHeight: 1.25, marginTop: 2, marginBottom: 6 },
     h2: { fontSize: 13, fontWeight: 600, marginTop: 14, marginBottom: 6, color: INK },
     h3: { fontSize: 10.5, fontWeight: 600 },

@@ -3,6 +3,8 @@
 // (an independent PDF reader), approved by the owner, downloaded.
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { readFile, writeFile } from "node:fs/promises";
+import os from "node:os";
+import path from "node:path";
 import { createHash } from "node:crypto";
 import { and, eq } from "drizzle-orm";
 import * as findingsApi from "@/app/api/findings/route";
@@ -24,6 +26,7 @@ import { demoActors, demoOrganisationId, req, route, type Actor, type DemoActorK
 import { makeFlight, makeJob } from "@/tests/support/factories";
 import { makeProcessedRecording, type ProcessedRecording } from "@/tests/support/media/make-processed-recording";
 import { readPdfText } from "@/tests/support/read-pdf-text";
+import { runTool } from "@/tests/support/media/make-h264";
 
 let actors: Record<DemoActorKey, Actor>;
 let orgId: string;
@@ -94,6 +97,21 @@ describe("building, reading back, approving and downloading a report", () => {
     const [ev] = await db().select().from(s.custodyEvents).where(and(eq(s.custodyEvents.evidenceId, reportId), eq(s.custodyEvents.eventType, "report_built")));
     expect(ev.outputSha256).toBe(row.sha256);
     expect(await buildReport({ reportId })).toBe("already-built");
+  });
+
+  it("sets its text in IBM Plex Sans and its figures in IBM Plex Mono, both embedded (poppler's pdffonts)", async () => {
+    const file = path.join(os.tmpdir(), `cairn-report-${reportId}.pdf`);
+    await writeFile(file, pdf);
+    const { stdout } = await runTool("pdffonts", [file]);
+    // rows: name type encoding emb sub uni ...; embedded subsets carry a 6-letter prefix ("ABCDEF+")
+    const fonts = stdout.split("\n").slice(2).filter(Boolean).map((l) => l.trim().split(/\s+/));
+    const byName = (name: RegExp) => fonts.find((f) => name.test(f[0].replace(/^[A-Z]{6}\+/, "")));
+    for (const name of [/^IBMPlexSans-/, /^IBMPlexMono-Regular$/]) {
+      const row = byName(name);
+      expect(row, `${name} in\n${stdout}`).toBeDefined();
+      expect(row!.at(-5)).toBe("yes"); // emb
+    }
+    expect(fonts.some((f) => /Courier/.test(f[0]))).toBe(false);
   });
 
   it("parsed back with pdfjs-dist: every finding's timecode and severity, every original's hash, notes as plain text", async () => {
