@@ -1,7 +1,7 @@
 // Gathers one job's report from the database: cover facts, the crew, flights and recordings with
 // their original hashes, and every live finding with its moment, still and position. Read in one
 // repeatable-read transaction, so the counts and the findings listed agree with each other.
-import { and, asc, eq, inArray, isNull } from "drizzle-orm";
+import { and, asc, desc, eq, inArray, isNull } from "drizzle-orm";
 import { db } from "@/db/client";
 import * as s from "@/db/schema";
 import { notFound } from "@/lib/api/errors";
@@ -161,6 +161,14 @@ export async function loadReportData(organisationId: string, reportId: string): 
         LOCAL_RULES_CAUTION,
       ];
 
+      // printed in the report, the chain's newest hash leaves Cairn with the client: an entry altered or
+      // removed later would no longer lead to it
+      const [custodyHead] = await tx
+        .select({ seq: s.custodyEvents.seq, hash: s.custodyEvents.hash, occurredAt: s.custodyEvents.occurredAt })
+        .from(s.custodyEvents)
+        .where(eq(s.custodyEvents.organisationId, organisationId))
+        .orderBy(desc(s.custodyEvents.seq))
+        .limit(1);
       return {
         organisationName: head.organisationName,
         reportId: head.reportId,
@@ -202,6 +210,7 @@ export async function loadReportData(organisationId: string, reportId: string): 
         findings,
         cautions,
         preservation: PRESERVATION_STATEMENT,
+        custodyHead: custodyHead ? { seq: custodyHead.seq, hash: custodyHead.hash, occurredAt: formatZoned(custodyHead.occurredAt, tz) } : null,
       };
     },
     { isolationLevel: "repeatable read", accessMode: "read only" },

@@ -44,4 +44,6 @@ export type ReportData = {
   findings: ReportFinding[];
   cautions: Caution[];
   preservation: readonly string[];
+  /** the newest entry of the organisation's custody log when the report was built; null for an empty log */
+  custodyHead: { seq: number; hash: string; occurredAt: string } | null;
 };

@@ -266,6 +266,17 @@ export function makeReportDocument(pdf: typeof ReactPdf): (props: ReportDocument
               {p}
             </Text>
           ))}
+          {data.custodyHead && (
+            <View style={{ marginBottom: 4 }} wrap={false}>
+              <Text>
+                When this report was built, the custody log&apos;s newest entry was number {data.custodyHead.seq} ({data.custodyHead.occurredAt}). Its chain hash is printed below: in an
+                export of the log made at any later time, entry {data.custodyHead.seq} must still carry it. If any entry up to it had been altered or removed, it would not.
+              </Text>
+              <Text style={st.hash}>
+                custody entry {data.custodyHead.seq} chain SHA-256 {data.custodyHead.hash}
+              </Text>
+            </View>
+          )}
 
           <Text style={st.h2}>Safety cautions</Text>
           {data.cautions.map((c) => (

@@ -143,6 +143,15 @@ describe("building, reading back, approving and downloading a report", () => {
     expect(text).toContain("Caution: Above 120 m");
     expect(text).toContain("Caution: Keep the aircraft within visual line of sight");
     expect(images).toBeGreaterThanOrEqual(2); // the two ready stills are embedded
+    // the custody log's newest entry at build time: a real entry of this organisation's chain, with
+    // its exact hash, logged before the build's own entry
+    const printed = /custody entry (\d+) chain SHA-256 ([0-9a-f]{64})/.exec(text);
+    expect(printed, "custody head line").not.toBeNull();
+    const orgId = await demoOrganisationId();
+    const [entry] = await db().select().from(s.custodyEvents).where(and(eq(s.custodyEvents.organisationId, orgId), eq(s.custodyEvents.seq, Number(printed![1]))));
+    expect(entry.hash).toBe(printed![2]);
+    const [built] = await db().select().from(s.custodyEvents).where(and(eq(s.custodyEvents.evidenceId, reportId), eq(s.custodyEvents.eventType, "report_built")));
+    expect(entry.seq).toBeLessThan(built.seq);
   });
 
   it("downloads as an attachment with Range support; access is checked on every request", async () => {

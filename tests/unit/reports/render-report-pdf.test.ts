@@ -56,6 +56,7 @@ const data: ReportData = {
   ],
   cautions: CAUTIONS.slice(1, 2),
   preservation: PRESERVATION_STATEMENT,
+  custodyHead: { seq: 1234, hash: sha("c"), occurredAt: "14 Mar 2026, 09:00" },
 };
 
 describe("renderReportPdf", () => {
@@ -73,5 +74,7 @@ describe("renderReportPdf", () => {
     expect(text).toContain(CAUTIONS[1].summary);
     expect(text).toContain("report version 4"); // the footer on every page
     expect(text).toMatch(/Page 1 of \d/);
+    // the custody log's newest hash at build time, whole on one line with its entry number
+    expect(text.split("\n").some((line) => line.includes("custody entry 1234 chain SHA-256") && line.includes(sha("c")))).toBe(true);
   }, 60_000);
 });
