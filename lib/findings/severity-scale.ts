@@ -74,10 +74,6 @@ export const SEVERITY_SCALE: Readonly<Record<Severity, SeverityLevel>> = {
 /** Worst first: the order of lists and report counts. */
 export const SEVERITIES_WORST_FIRST: readonly Severity[] = [...SEVERITIES].reverse();
 
-export function severityLevel(value: Severity): SeverityLevel {
-  return SEVERITY_SCALE[value];
-}
-
 export function isSeverity(value: unknown): value is Severity {
   return typeof value === "string" && (SEVERITIES as readonly string[]).includes(value);
 }

@@ -27,7 +27,3 @@ export function authorizeUploadRequest(req: Request): Promise<Member> {
   return p;
 }
 
-/** The member already established for this request by authorizeUploadRequest, if any. */
-export function memberOf(req: Request): Promise<Member> | undefined {
-  return checked.get(req);
-}

@@ -40,8 +40,6 @@ const NON_VIDEO_BRANDS: Record<string, string> = {
 
 const ACCEPTED = "Cairn accepts raw H.264 streams, MP4/MOV and JPEG, recognised by their bytes (the file name's extension does not count)";
 
-export const ACCEPTED_KINDS_SENTENCE = ACCEPTED;
-
 function ascii(head: Uint8Array, start: number, length: number): string {
   let out = "";
   for (let i = start; i < start + length && i < head.length; i++) out += String.fromCharCode(head[i]);

@@ -13,7 +13,7 @@
 //   onUploadFinish               the commit (settle-upload.ts); its outcome rides on the response.
 import { Server } from "@tus/server";
 import { env } from "@/lib/config/env";
-import { authorizeUploadRequest, memberOf } from "./authorize-upload-request";
+import { authorizeUploadRequest } from "./authorize-upload-request";
 import { assertWithinQuota } from "./check-upload-quota";
 import { explainTusError } from "./explain-tus-error";
 import { readFileHead } from "./read-file-head";
@@ -97,7 +97,7 @@ export function createUploadService(directory: string): UploadService {
     },
     onUploadFinish: async (req, upload) => {
       headChecked.delete(upload.id);
-      const member = await (memberOf(req) ?? authorizeUploadRequest(req));
+      const member = await authorizeUploadRequest(req); // the check made for this request, kept
       const outcome = await settleUpload(store, upload.id, { req, role: member.role });
       if (outcome.state === "refused") throw new UploadRefusal("unprocessable", outcome.reason);
       return { status_code: 204, headers: outcomeHeaders(outcome) };

@@ -23,9 +23,3 @@ export async function ensureQueued<N extends JobName>(name: N, data: JobPayloads
   return outcome;
 }
 
-/** The job's state in Redis, or "missing" when Redis has no such job (e.g. after Redis lost its data). */
-export async function queuedJobState<N extends JobName>(name: N, data: JobPayloads[N]): Promise<string> {
-  const job = await queue(name).getJob(jobIdFor(name, data));
-  if (!job) return "missing";
-  return job.getState();
-}

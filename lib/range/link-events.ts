@@ -26,4 +26,3 @@ export const LINK_EVENT_META: Record<LinkEvent, { label: string; meaning: string
   },
 };
 
-export const isLinkEvent = (v: unknown): v is LinkEvent => typeof v === "string" && (LINK_EVENTS as readonly string[]).includes(v);

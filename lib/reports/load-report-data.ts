@@ -21,14 +21,13 @@ const coords = (lat: number | null, lon: number | null) => (lat === null || lon 
 const metresAndFeet = (m: number) => `${m.toFixed(1)} m (${metresToFeet(m).toFixed(0)} ft)`;
 
 /** ISO date and 24-hour time in the site's time zone: "2026-03-14 09:41 (Europe/London)". */
-export function formatZoned(d: Date, timeZone: string, withTime = true): string {
+function formatZoned(d: Date, timeZone: string): string {
   const parts = Object.fromEntries(
     new Intl.DateTimeFormat("en-GB", { timeZone, year: "numeric", month: "2-digit", day: "2-digit", hour: "2-digit", minute: "2-digit", hourCycle: "h23" })
       .formatToParts(d)
       .map((p) => [p.type, p.value]),
   );
-  const date = `${parts.year}-${parts.month}-${parts.day}`;
-  return withTime ? `${date} ${parts.hour}:${parts.minute} (${timeZone})` : date;
+  return `${parts.year}-${parts.month}-${parts.day} ${parts.hour}:${parts.minute} (${timeZone})`;
 }
 
 export async function loadReportData(organisationId: string, reportId: string): Promise<ReportData> {
