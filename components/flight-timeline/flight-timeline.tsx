@@ -8,34 +8,13 @@ import { useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
 import { fetchJson } from "@/components/fetch-json";
 import { Button } from "@/components/ui/button";
 import { TraceSummaryLine } from "@/components/trace/trace-summary";
+import type { FlightTimeline, TimelineGap, TimelineSegment } from "@/lib/flight-timeline/build-flight-timeline";
 import { layoutFlightTimeline } from "./layout-flight-timeline";
 
-type Segment = {
-  recordingId: string;
-  index: number;
-  originalName: string;
-  state: "waiting" | "processing" | "ready" | "failed";
-  recorderModifiedAt: string | null;
-  lengthSec: number | null;
-  flightStartSec: number | null;
-  trace: { intactShare: number; firstDegradationSec: number | null; longestLossSec: number } | null;
-};
-type Gap = { afterRecordingId: string; beforeRecordingId: string; seconds: number | null; reason: string | null };
-type Timeline = {
-  flightId: string;
-  segments: Segment[];
-  gaps: Gap[];
-  summary: {
-    files: number;
-    recordedSec: number;
-    spanSec: number | null;
-    intactShare: number | null;
-    firstDegradation: { recordingId: string; index: number; atSec: number; flightSec: number | null } | null;
-    longestLossSec: number;
-    longestGapSec: number | null;
-    unknownGaps: number;
-  };
-};
+// the API's answer: the server's timeline (no dates in it) and the flight it belongs to
+type Segment = TimelineSegment;
+type Gap = TimelineGap;
+type Timeline = FlightTimeline & { flightId: string };
 
 const STATE_WORDS: Record<Segment["state"], string> = { waiting: "Waiting", processing: "Processing", ready: "Ready", failed: "Failed" };
 

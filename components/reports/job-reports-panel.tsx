@@ -8,21 +8,10 @@ import { fetchJson } from "@/components/fetch-json";
 import { Button } from "@/components/ui/button";
 import { HashText } from "@/components/ui/hash-text";
 import { FormError } from "@/components/ui/panel";
+import type { ReportView } from "@/lib/reports/report-view";
 
-export type ReportItem = {
-  id: string;
-  version: number;
-  state: "queued" | "building" | "ready" | "approved" | "failed";
-  progress: number;
-  sizeBytes: number | null;
-  sha256: string | null;
-  failureReason: string | null;
-  createdBy: string | null;
-  createdAt: string;
-  approvedBy: string | null;
-  approvedAt: string | null;
-  downloadUrl: string | null;
-};
+/** A report version as the JSON API sends it: the server's view, with dates as ISO strings. */
+export type ReportItem = Omit<ReportView, "jobId" | "createdAt" | "approvedAt"> & { createdAt: string; approvedAt: string | null };
 
 const STATE_WORD: Record<ReportItem["state"], string> = {
   queued: "Waiting to build",

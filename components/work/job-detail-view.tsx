@@ -8,24 +8,15 @@ import { ASSET_KIND_LABELS, JOB_STATUS_MEANING, type JobStatus } from "@/lib/val
 import { isOverdue } from "@/lib/work/format-work-dates";
 import type { AltitudeUnit } from "@/lib/work/format-altitude";
 import type { Role } from "@/db/schema/types";
-import { JobForm } from "./job-form";
+import { JobForm, type JobFormRow } from "./job-form";
 import { JobStatusBadge } from "./job-status";
 import { FlightsTable } from "./flights-table";
 import { FlightForm } from "./flight-form";
 import { Coordinates } from "./coordinates";
 import { DetailSection, Fact } from "./detail-section";
 
-export type JobDetailData = {
-  id: string;
-  siteId: string;
-  title: string;
-  scope: string | null;
-  dueDate: string | null;
-  status: JobStatus;
-  pilotId: string | null;
-  reviewerId: string | null;
+export type JobDetailData = JobFormRow & {
   legalHold: boolean;
-  archivedAt: string | null;
   createdAt: string;
   siteName: string;
   siteTimeZone: string;
