@@ -28,6 +28,11 @@ async function assertRecording(organisationId: string, recordingId: string) {
 
 export async function recordingTagNames(organisationId: string, recordingId: string): Promise<string[]> {
   await assertRecording(organisationId, recordingId);
+  return tagNamesOf(organisationId, recordingId);
+}
+
+/** The names, for a recording already checked to be the organisation's. */
+async function tagNamesOf(organisationId: string, recordingId: string): Promise<string[]> {
   const rows = await db()
     .select({ name: tags.name })
     .from(recordingTags)
@@ -46,7 +51,7 @@ export async function addRecordingTag(organisationId: string, recordingId: strin
     }
     await tx.insert(recordingTags).values({ organisationId, recordingId, tagId: tag.id }).onConflictDoNothing();
   });
-  return recordingTagNames(organisationId, recordingId);
+  return tagNamesOf(organisationId, recordingId);
 }
 
 export async function removeRecordingTag(organisationId: string, recordingId: string, name: string): Promise<string[]> {
@@ -58,5 +63,5 @@ export async function removeRecordingTag(organisationId: string, recordingId: st
   await db()
     .delete(recordingTags)
     .where(and(eq(recordingTags.recordingId, recordingId), eq(recordingTags.organisationId, organisationId), sql`${recordingTags.tagId} in ${matching}`));
-  return recordingTagNames(organisationId, recordingId);
+  return tagNamesOf(organisationId, recordingId);
 }

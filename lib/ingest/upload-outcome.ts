@@ -7,7 +7,6 @@
 // only: the recording row (stored, or filed as a linked duplicate), the custody event of a duplicate
 // the flight already held, or the tombstone in the staging folder (refused; kept 14 days).
 import { and, eq } from "drizzle-orm";
-import { alias } from "drizzle-orm/pg-core";
 import { db } from "@/db/client";
 import { flights, jobs, recordings } from "@/db/schema";
 import type { RecordingKind } from "./sniff-content";
@@ -52,11 +51,13 @@ export function outcomeHeaders(o: UploadOutcome): Record<string, string> {
   return h;
 }
 
-const holder = alias(recordings, "holder");
-
-async function duplicateTarget(organisationId: string, recordingId: string): Promise<DuplicateTarget | null> {
+/** The recording an upload duplicates, as the pilot is told of it, with the facts of its original. */
+async function duplicateTarget(organisationId: string, recordingId: string) {
   const [row] = await db()
     .select({
+      sha256: recordings.sha256,
+      kind: recordings.kind,
+      sizeBytes: recordings.sizeBytes,
       recordingId: recordings.id,
       originalName: recordings.originalName,
       relativePath: recordings.relativePath,
@@ -69,7 +70,9 @@ async function duplicateTarget(organisationId: string, recordingId: string): Pro
     .innerJoin(flights, eq(flights.id, recordings.flightId))
     .innerJoin(jobs, eq(jobs.id, recordings.jobId))
     .where(and(eq(recordings.id, recordingId), eq(recordings.organisationId, organisationId)));
-  return row ?? null;
+  if (!row) return null;
+  const { sha256, kind, sizeBytes, ...target } = row;
+  return { target: target satisfies DuplicateTarget, original: { sha256, kind, sizeBytes } };
 }
 
 /** The outcome of an upload that has its own recording row (stored, or filed as a linked duplicate). */
@@ -83,16 +86,14 @@ export async function outcomeOfRow(organisationId: string, uploadId: string): Pr
       kind: recordings.kind,
       sizeBytes: recordings.sizeBytes,
       duplicateOfId: recordings.duplicateOfId,
-      holderId: holder.id,
     })
     .from(recordings)
-    .leftJoin(holder, eq(holder.id, recordings.duplicateOfId))
     .where(and(eq(recordings.uploadId, uploadId), eq(recordings.organisationId, organisationId)));
   if (!row) return null;
   const common = { uploadId, fileName: row.originalName, relativePath: row.relativePath, recordingId: row.id, sha256: row.sha256, kind: row.kind, sizeBytes: row.sizeBytes };
   if (row.duplicateOfId) {
-    const target = await duplicateTarget(organisationId, row.duplicateOfId);
-    if (target) return { ...common, state: "duplicate", linked: true, duplicateOf: target };
+    const found = await duplicateTarget(organisationId, row.duplicateOfId);
+    if (found) return { ...common, state: "duplicate", linked: true, duplicateOf: found.target };
   }
   return { ...common, state: "stored" };
 }
@@ -103,11 +104,7 @@ export async function outcomeOfUnfiledDuplicate(
   upload: Common,
   existingRecordingId: string,
 ): Promise<UploadOutcome | null> {
-  const target = await duplicateTarget(organisationId, existingRecordingId);
-  if (!target) return null;
-  const [row] = await db()
-    .select({ sha256: recordings.sha256, kind: recordings.kind, sizeBytes: recordings.sizeBytes })
-    .from(recordings)
-    .where(and(eq(recordings.id, existingRecordingId), eq(recordings.organisationId, organisationId)));
-  return { ...upload, state: "duplicate", recordingId: existingRecordingId, sha256: row.sha256, kind: row.kind, sizeBytes: row.sizeBytes, linked: false, duplicateOf: target };
+  const found = await duplicateTarget(organisationId, existingRecordingId);
+  if (!found) return null;
+  return { ...upload, state: "duplicate", recordingId: existingRecordingId, ...found.original, linked: false, duplicateOf: found.target };
 }

@@ -3,13 +3,14 @@
 // trace. No database and no queue here: the worker commits the result; the benchmark runs it bare.
 // The original is only ever opened for reading.
 import { createReadStream } from "node:fs";
-import { open, stat } from "node:fs/promises";
+import { stat } from "node:fs/promises";
 import path from "node:path";
 import type { ProbeFacts } from "@/db/schema/media";
 import { probeStream, type ProbeResult, type StreamFacts } from "@/lib/h264/probe-stream";
 import { findFrameAtOffset, presentFrameSlots, type SignalTrace } from "@/lib/h264/signal-trace";
 import { locateDecoderEvents } from "@/lib/h264/ffmpeg-decode-errors";
 import { sha256OfStream } from "@/lib/custody/sha256-stream";
+import { readFileHead } from "@/lib/ingest/read-file-head";
 import { buildTraceRecord, type TraceRecord } from "./build-trace-record";
 import { chooseFrameRate } from "./choose-frame-rate";
 import { chooseThumbnailPlan } from "./choose-thumbnail-plan";
@@ -90,21 +91,10 @@ export async function deriveRecordingOutputs(input: DeriveInput): Promise<Derive
   const report: Progress = input.onProgress ?? (() => {});
   const size = (await stat(input.originalPath)).size;
   if (size === 0) throw new RecordingRefused("The file is empty (0 bytes)");
-  const kind = detectMediaKind(await readHead(input.originalPath, 16), input.declaredKind);
+  const kind = detectMediaKind(await readFileHead(input.originalPath, 16), input.declaredKind);
   if (kind === "raw_h264") return deriveFromRawH264(input, size, report);
   if (kind === "jpeg") return deriveFromStill(input, report);
   return deriveFromContainer(input, kind, report);
-}
-
-async function readHead(file: string, bytes: number): Promise<Uint8Array> {
-  const fh = await open(file, "r");
-  try {
-    const buf = Buffer.alloc(bytes);
-    const { bytesRead } = await fh.read(buf, 0, bytes, 0);
-    return buf.subarray(0, bytesRead);
-  } finally {
-    await fh.close();
-  }
 }
 
 /** Reads the original in 1 MiB chunks, reporting progress and stopping when the job is cancelled. */

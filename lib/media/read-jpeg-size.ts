@@ -2,7 +2,7 @@
 // SOI to the first SOFn segment, whose payload is precision (1 byte), height (2), width (2)
 // (ITU-T T.81 B.1.1 marker layout, B.2.2 frame header; SOF markers are FFC0-FFCF except DHT FFC4,
 // JPG FFC8 and DAC FFCC).
-import { open } from "node:fs/promises";
+import { readFileHead } from "@/lib/ingest/read-file-head";
 
 const HEAD_BYTES = 64 * 1024; // frame headers sit well inside the first 64 KiB of ffmpeg's JPEGs
 
@@ -34,12 +34,5 @@ export function jpegSizeOf(bytes: Uint8Array): { width: number; height: number }
 }
 
 export async function readJpegSize(path: string): Promise<{ width: number; height: number } | null> {
-  const fh = await open(path, "r");
-  try {
-    const buf = Buffer.alloc(HEAD_BYTES);
-    const { bytesRead } = await fh.read(buf, 0, HEAD_BYTES, 0);
-    return jpegSizeOf(buf.subarray(0, bytesRead));
-  } finally {
-    await fh.close();
-  }
+  return jpegSizeOf(await readFileHead(path, HEAD_BYTES));
 }
