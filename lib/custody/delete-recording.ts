@@ -9,9 +9,9 @@ import { ApiError, notFound } from "@/lib/api/errors";
 import type { Member } from "@/lib/auth/load-member";
 import { can } from "@/lib/auth/permissions";
 import { removeKey, storePath } from "@/lib/storage/local-store";
-import { recordCustodyEvent } from "./record-custody-event";
+import { recordCustodyEvent, type RequestFacts } from "./record-custody-event";
 
-type Facts = { clientAddress: string | null; userAgent: string | null };
+type Facts = RequestFacts;
 
 export type DeletionResult = { recordingId: string; deletedAt: Date; removed: string[] };
 

@@ -93,10 +93,17 @@ export async function recordCustodyEvent(input: CustodyInput, tx?: DbOrTx) {
 }
 
 /** Request facts worth keeping with an event: client address and user agent. */
-export function requestFacts(req: Request): { clientAddress: string | null; userAgent: string | null } {
-  const fwd = req.headers.get("x-forwarded-for");
+export type RequestFacts = { clientAddress: string | null; userAgent: string | null };
+
+export function requestFacts(req: Request): RequestFacts {
+  return factsFromHeaders(req.headers);
+}
+
+/** The same from plain headers (server components have headers, not a Request). */
+export function factsFromHeaders(h: Headers): RequestFacts {
+  const fwd = h.get("x-forwarded-for");
   return {
-    clientAddress: (fwd ? fwd.split(",")[0].trim() : req.headers.get("x-real-ip")) ?? null,
-    userAgent: req.headers.get("user-agent")?.slice(0, 400) ?? null,
+    clientAddress: (fwd ? fwd.split(",")[0].trim() : h.get("x-real-ip")) ?? null,
+    userAgent: h.get("user-agent")?.slice(0, 400) ?? null,
   };
 }

@@ -5,7 +5,7 @@ import { db } from "@/db/client";
 import { jobs } from "@/db/schema";
 import { ApiError, notFound } from "@/lib/api/errors";
 import type { Member } from "@/lib/auth/load-member";
-import { recordCustodyEvent } from "./record-custody-event";
+import { recordCustodyEvent, type RequestFacts } from "./record-custody-event";
 
 export type LegalHold = { jobId: string; legalHold: boolean; legalHoldReason: string | null };
 
@@ -22,7 +22,7 @@ export async function setLegalHold(
   member: Member,
   jobId: string,
   input: { hold: boolean; reason?: string | null },
-  facts: { clientAddress: string | null; userAgent: string | null },
+  facts: RequestFacts,
 ): Promise<LegalHold> {
   const reason = input.reason?.trim() || null;
   if (input.hold && !reason) throw new ApiError("unprocessable", "Say why the job is held", { reason: ["Give the reason for the hold (case, claim or request reference)"] });

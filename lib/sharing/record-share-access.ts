@@ -3,11 +3,11 @@
 // hash-chained log of who handled which evidence).
 import { db } from "@/db/client";
 import { shareLinkEvents } from "@/db/schema";
-import { recordCustodyEvent } from "@/lib/custody/record-custody-event";
+import { recordCustodyEvent, type RequestFacts } from "@/lib/custody/record-custody-event";
 import type { ScopedFile } from "./resolve-scoped-file";
 
 type LinkRef = { id: string; organisationId: string; jobId: string };
-export type AccessFacts = { clientAddress: string | null; userAgent: string | null };
+export type AccessFacts = RequestFacts;
 
 export async function recordShareOpen(link: LinkRef, facts: AccessFacts): Promise<void> {
   await db().transaction(async (tx) => {

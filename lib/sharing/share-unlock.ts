@@ -20,11 +20,4 @@ export function unlockCookie(link: Lockable, secure: boolean, nowMs = Date.now()
   return `${unlockCookieName(link.id)}=${value}; Path=/; Max-Age=${maxAge}; HttpOnly; SameSite=Lax${secure ? "; Secure" : ""}`;
 }
 
-/** Request facts for custody from plain headers (server components have headers, not a Request). */
-export function factsFromHeaders(h: Headers): { clientAddress: string | null; userAgent: string | null } {
-  const fwd = h.get("x-forwarded-for");
-  return {
-    clientAddress: (fwd ? fwd.split(",")[0].trim() : h.get("x-real-ip")) ?? null,
-    userAgent: h.get("user-agent")?.slice(0, 400) ?? null,
-  };
-}
+

@@ -6,7 +6,8 @@ import { headers } from "next/headers";
 import { redirect } from "next/navigation";
 import { resolveShareLink } from "@/lib/sharing/resolve-share-link";
 import { buildShareView } from "@/lib/sharing/build-share-view";
-import { isUnlocked, factsFromHeaders } from "@/lib/sharing/share-unlock";
+import { isUnlocked } from "@/lib/sharing/share-unlock";
+import { factsFromHeaders } from "@/lib/custody/record-custody-event";
 import { recordShareOpen } from "@/lib/sharing/record-share-access";
 import { ShareViewer } from "@/components/sharing/share-viewer";
 
