@@ -3,6 +3,7 @@
 import { and, asc, desc, eq, isNull, type SQL } from "drizzle-orm";
 import { db } from "@/db/client";
 import { flights, rangeChecks, recordings } from "@/db/schema";
+import type { SelectedFields } from "drizzle-orm/pg-core";
 import { ApiError, notFound } from "@/lib/api/errors";
 import { listOrder, listWhere, pageOf, totalCount, type ListParams } from "@/lib/api/list";
 import type { Member } from "@/lib/auth/load-member";
@@ -24,9 +25,10 @@ export const rangeCheckColumns = {
   updatedAt: rangeChecks.updatedAt,
 };
 
-function selectRangeChecks() {
+/** Range checks with their flight and recording names; `extra` adds columns (a list's total). */
+function selectRangeChecks<X extends SelectedFields = Record<never, never>>(extra?: X) {
   return db()
-    .select(rangeCheckColumns)
+    .select({ ...rangeCheckColumns, ...(extra as X) })
     .from(rangeChecks)
     .innerJoin(flights, and(eq(flights.id, rangeChecks.flightId), eq(flights.organisationId, rangeChecks.organisationId)))
     .leftJoin(recordings, and(eq(recordings.id, rangeChecks.recordingId), eq(recordings.organisationId, rangeChecks.organisationId)));
@@ -37,11 +39,7 @@ export type RangeCheckListParams = ListParams & { flightId?: string };
 export async function listRangeChecks(orgId: string, params: RangeCheckListParams) {
   // a flight of another organisation answers 404, like any of its records
   if (params.flightId) await getRangeCheckFlightOrThrow(orgId, params.flightId);
-  const rows = await db()
-    .select({ ...rangeCheckColumns, total: totalCount })
-    .from(rangeChecks)
-    .innerJoin(flights, and(eq(flights.id, rangeChecks.flightId), eq(flights.organisationId, rangeChecks.organisationId)))
-    .leftJoin(recordings, and(eq(recordings.id, rangeChecks.recordingId), eq(recordings.organisationId, rangeChecks.organisationId)))
+  const rows = await selectRangeChecks({ total: totalCount })
     .where(
       listWhere({
         orgFilter: eq(rangeChecks.organisationId, orgId),
