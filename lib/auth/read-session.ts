@@ -1,17 +1,19 @@
 // Reads the signed-in user from a request's session cookie (the next-auth JWT), without
 // depending on Next's request context, so route handlers can be called directly in tests.
 import { decode } from "next-auth/jwt";
+import { parse as parseCookieHeader } from "cookie";
 import { env } from "@/lib/config/env";
 
 export const SESSION_COOKIES = ["__Secure-next-auth.session-token", "next-auth.session-token"];
 
+/**
+ * Cookies of a request, read with the `cookie` library (jshttp): a value whose percent-escapes do not
+ * decode (for example `theme=50%`, which another app on the same host may set) is kept as it is
+ * instead of throwing, so one stray cookie never takes a route down.
+ */
 export function parseCookies(header: string | null): Map<string, string> {
   const out = new Map<string, string>();
-  for (const part of (header ?? "").split(";")) {
-    const i = part.indexOf("=");
-    if (i < 0) continue;
-    out.set(part.slice(0, i).trim(), decodeURIComponent(part.slice(i + 1).trim()));
-  }
+  for (const [name, value] of Object.entries(parseCookieHeader(header ?? ""))) if (value !== undefined) out.set(name, value);
   return out;
 }
 
