@@ -3,6 +3,7 @@ import { pgTable, uuid, text, timestamp, doublePrecision, integer, bigint, jsonb
 import { organisations, users, timestamps } from "./organisations";
 import { jobs, flights } from "./work";
 import { recordingKindEnum, processingStateEnum, renditionKindEnum, stillStateEnum } from "./enums";
+import type { RecordingFigures } from "../../lib/media/recording-figures";
 
 const orgRef = () => uuid("organisation_id").notNull().references(() => organisations.id, { onDelete: "cascade" });
 
@@ -46,7 +47,10 @@ export const recordings = pgTable(
     failureReason: text("failure_reason"),
     fpsOverride: doublePrecision("fps_override"),
     facts: jsonb("facts").$type<ProbeFacts>(),
+    // figures.durationSeconds, kept as a column for sorting; written together with figures
     durationSec: doublePrecision("duration_sec"),
+    // the one set of figures, computed once by the worker (lib/media/recording-figures.ts)
+    figures: jsonb("figures").$type<RecordingFigures>(),
     processedAt: timestamp("processed_at", { withTimezone: true }),
     deletedAt: timestamp("deleted_at", { withTimezone: true }),
     deletedBy: uuid("deleted_by").references(() => users.id, { onDelete: "set null" }),
