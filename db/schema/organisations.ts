@@ -52,6 +52,8 @@ export const invitations = pgTable(
     expiresAt: timestamp("expires_at", { withTimezone: true }).notNull(),
     acceptedAt: timestamp("accepted_at", { withTimezone: true }),
     revoked: boolean("revoked").notNull().default(false),
+    // for a client account: the organisation's clients whose work it may see (copied to membership_clients)
+    clientIds: uuid("client_ids").array().notNull().default([]),
     ...timestamps,
   },
   (t) => [index("invitations_org_idx").on(t.organisationId, t.email)],
@@ -66,4 +68,18 @@ export const verificationTokens = pgTable(
     expires: timestamp("expires", { withTimezone: true }).notNull(),
   },
   (t) => [uniqueIndex("verification_tokens_uq").on(t.identifier, t.token)],
+);
+
+// One row per signed-in session (the JWT carries its id as `sid`). Every request checks the row, so
+// sign-out, a password change, a role change or removal from an organisation ends a session on the
+// server at the next request, not at the token's expiry.
+export const userSessions = pgTable(
+  "user_sessions",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    userId: uuid("user_id").notNull().references(() => users.id, { onDelete: "cascade" }),
+    createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
+    endedAt: timestamp("ended_at", { withTimezone: true }),
+  },
+  (t) => [index("user_sessions_user_idx").on(t.userId)],
 );

@@ -1,6 +1,6 @@
 // Clients, sites, jobs, flights: how a crew files its work.
-import { pgTable, uuid, text, timestamp, doublePrecision, date, boolean, index } from "drizzle-orm/pg-core";
-import { organisations, users, timestamps } from "./organisations";
+import { pgTable, uuid, text, timestamp, doublePrecision, date, boolean, index, primaryKey } from "drizzle-orm/pg-core";
+import { organisations, users, memberships, timestamps } from "./organisations";
 import { assetKindEnum, jobStatusEnum } from "./enums";
 
 const orgRef = () => uuid("organisation_id").notNull().references(() => organisations.id, { onDelete: "cascade" });
@@ -82,4 +82,17 @@ export const flights = pgTable(
     ...timestamps,
   },
   (t) => [index("flights_org_job_idx").on(t.organisationId, t.jobId), index("flights_org_date_idx").on(t.organisationId, t.flownOn)],
+);
+
+// A client account sees only the work of the clients it is tied to here (jobs at their sites, and
+// what hangs off those jobs). Other roles ignore this table.
+export const membershipClients = pgTable(
+  "membership_clients",
+  {
+    membershipId: uuid("membership_id").notNull().references(() => memberships.id, { onDelete: "cascade" }),
+    clientId: uuid("client_id").notNull().references(() => clients.id, { onDelete: "cascade" }),
+    organisationId: orgRef(),
+    createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [primaryKey({ columns: [t.membershipId, t.clientId] }), index("membership_clients_client_idx").on(t.clientId)],
 );
