@@ -1,11 +1,12 @@
 // The worker process: serves every job type from Redis, reconciles the queue with Postgres, and shuts
 // down within a bound on SIGTERM/SIGINT (running jobs return to the queue if they cannot finish).
-import { env } from "@/lib/config/env";
+import { env, requireSecrets } from "@/lib/config/env";
 import { closeDb } from "@/db/client";
 import { startWorker } from "./start-worker";
 import { workerTimings } from "./worker-options";
 
 async function main() {
+  requireSecrets();
   const timings = workerTimings();
   const running = await startWorker({ timings });
   console.log(`[worker] ready: Redis ${new URL(env().REDIS_URL).host}, pid ${process.pid}`);
