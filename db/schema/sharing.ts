@@ -86,3 +86,31 @@ export const custodyEvents = pgTable(
     index("custody_events_org_job_idx").on(t.organisationId, t.jobId),
   ],
 );
+
+// A signed, time-stamped statement of an organisation's chain head (lib/custody/make-checkpoint.ts):
+// with it, verification can tell that nothing was cut from the end of the log or re-sealed up to this
+// point. Append-only like the log itself. The Ed25519 private key is never stored here, only the
+// public key that checks the signature; the RFC 3161 time-stamp response is kept whole (base64 DER).
+export const custodyCheckpoints = pgTable(
+  "custody_checkpoints",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    organisationId: orgRef(),
+    // 1-based, per organisation
+    number: integer("number").notNull(),
+    headSeq: bigint("head_seq", { mode: "number" }).notNull(),
+    headEventId: uuid("head_event_id").notNull(),
+    headHash: text("head_hash").notNull(),
+    // SHA-256 hex of the previous checkpoint's signed statement (64 zeros for the first)
+    previousStatementSha256: text("previous_statement_sha256").notNull(),
+    signedAt: timestamp("signed_at", { withTimezone: true, precision: 3 }).notNull(),
+    // Ed25519 (RFC 8032): raw 32-byte public key and 64-byte signature, base64url
+    publicKey: text("public_key").notNull(),
+    signature: text("signature").notNull(),
+    tsaUrl: text("tsa_url"),
+    tsaResponse: text("tsa_response"),
+    stampedAt: timestamp("stamped_at", { withTimezone: true }),
+    createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [uniqueIndex("custody_checkpoints_org_number_uq").on(t.organisationId, t.number)],
+);

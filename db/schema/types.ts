@@ -23,4 +23,5 @@ export type Report = InferSelectModel<typeof s.reports>;
 export type RangeCheck = InferSelectModel<typeof s.rangeChecks>;
 export type ShareLink = InferSelectModel<typeof s.shareLinks>;
 export type CustodyEvent = InferSelectModel<typeof s.custodyEvents>;
+export type CustodyCheckpoint = InferSelectModel<typeof s.custodyCheckpoints>;
 export type Role = Membership["role"];
