@@ -6,6 +6,7 @@ import { ApiError, errorResponse } from "./errors";
 import { readSession } from "@/lib/auth/read-session";
 import { loadMember, type Member } from "@/lib/auth/load-member";
 import { can, type Permission } from "@/lib/auth/permissions";
+import { refuseCrossSite } from "./refuse-cross-site";
 
 export type OrgContext<P> = { req: Request; params: P; member: Member };
 type RouteArg = { params: Promise<Record<string, string | string[]>> };
@@ -16,6 +17,7 @@ export function withOrg<P extends Record<string, string | string[]> = Record<str
 ) {
   return async (req: Request, route?: RouteArg): Promise<Response> => {
     try {
+      refuseCrossSite(req); // state-changing methods only: foreign origin 403, non-JSON body 415
       const member = await requireMember(req);
       if (!can(member.role, options.permission)) throw new ApiError("forbidden", "Your role does not allow this action");
       const params = (route?.params ? await route.params : {}) as P;

@@ -12,6 +12,17 @@ import { StagingStore } from "./staging-store";
 import { UPLOAD_ROUTE_PATH } from "./upload-limits";
 import { UploadRefusal } from "./upload-refusal";
 import { uploadService } from "./upload-server";
+import { ApiError } from "@/lib/api/errors";
+import { assertSameOrigin, isStateChanging } from "@/lib/api/refuse-cross-site";
+
+function sameOriginOrRefuse(req: Request): void {
+  try {
+    assertSameOrigin(req);
+  } catch (err) {
+    if (err instanceof ApiError) throw new UploadRefusal(err.code, err.message);
+    throw err;
+  }
+}
 
 const PATCH_CONTENT_TYPE = "application/offset+octet-stream";
 
@@ -79,6 +90,8 @@ export async function handleUploadRequest(req: Request): Promise<Response> {
   try {
     if (method === "GET") return await outcomeOf(req);
     if (method !== "OPTIONS") {
+      // tus keeps its own body type, but a page on another origin may not drive it either
+      if (isStateChanging(method)) sameOriginOrRefuse(req);
       await authorizeUploadRequest(req);
       if (method === "PATCH") {
         const type = req.headers.get("content-type")?.trim().toLowerCase();

@@ -38,9 +38,18 @@ export async function demoOrganisationId(): Promise<string> {
   return o.id;
 }
 
-/** A Request as the actor would send it (JSON body when given). */
+/**
+ * A Request as the actor would send it from the app's own pages (JSON body when given). A
+ * state-changing method carries the app's Origin as a browser would send it; pass `origin` in
+ * `headers` to send another one, or `origin: ""` to send none.
+ */
 export async function req(actor: Actor, method: string, url: string, body?: unknown, headers: Record<string, string> = {}): Promise<Request> {
-  const h: Record<string, string> = { ...headers };
+  const h: Record<string, string> = {};
+  if (["POST", "PUT", "PATCH", "DELETE"].includes(method.toUpperCase())) h.origin = new URL(env().APP_URL).origin;
+  for (const [k, v] of Object.entries(headers)) {
+    if (k.toLowerCase() === "origin") delete h.origin;
+    if (v !== "" || k.toLowerCase() !== "origin") h[k] = v;
+  }
   if (actor) h.cookie = await sessionCookie(actor);
   if (body !== undefined) h["content-type"] = "application/json";
   return new Request(new URL(url, "http://localhost"), {

@@ -1,7 +1,13 @@
 // POST /api/collector: the app's own playback-analytics collector. mux-embed posts its beacons here
 // (text/plain JSON { metadata, events }); views are stored per viewer: the signed-in member, or for
 // a shared page the share link its media grant names (lib/playback/share-viewer.ts). OPTIONS: CORS.
+// Cross-site guard (lib/api/refuse-cross-site.ts): the origin check applies, the JSON-only body rule
+// does not: mux-embed posts text/plain by design (a "simple" request, no CORS preflight). It writes
+// analytics rows only: a member's own views (session cookie) or a share link's views, each of which
+// must carry a media grant that the link signed for that recording. A page on another origin is
+// refused before any of that, so it can neither count views for a signed-in member nor for a link.
 import { ApiError, errorResponse } from "@/lib/api/errors";
+import { assertSameOrigin } from "@/lib/api/refuse-cross-site";
 import { requireMember } from "@/lib/api/with-org";
 import { env } from "@/lib/config/env";
 import { readBeacons, BeaconError } from "@/lib/playback/read-beacons";
@@ -38,6 +44,7 @@ export async function OPTIONS(req: Request) {
 export async function POST(req: Request) {
   const cors = corsHeaders(req);
   try {
+    assertSameOrigin(req);
     const length = Number(req.headers.get("content-length") ?? 0);
     if (length > MAX_BODY_BYTES) throw new ApiError("payload_too_large", "Beacon too large");
     const text = await req.text();
