@@ -1,21 +1,28 @@
-// npm run db:seed: the invented demo scenario (idempotent).
+// npm run db:seed: the invented demo scenario (idempotent). Every connection it opens (PostgreSQL,
+// the queues' Redis) is closed at the end, on success and on failure, so the script exits on its
+// own (tests/integration/scripts/scripts-exit.test.ts).
 import { db, closeDb } from "./client";
 import { seedDemo } from "./seed/seed-demo";
 import { seedDemoRecordings } from "./seed/seed-demo-recordings";
 import { closeQueues } from "@/lib/queue/jobs";
+import { closeRedis } from "@/lib/queue/redis";
 import { DEMO_PASSWORD, DEMO_USERS } from "./seed/demo-scenario";
 
-seedDemo(db())
-  .then(async ({ created, organisationId }) => {
-    console.log(created ? "[cairn] demo scenario seeded" : "[cairn] demo scenario already present: nothing changed");
-    const made = await seedDemoRecordings(db(), organisationId);
-    if (made) console.log(`[cairn] ${made} demo recordings generated from test patterns and queued for processing`);
-    await closeQueues();
-    console.log(`[cairn] demo sign-ins (password ${DEMO_PASSWORD}): ${DEMO_USERS.map((u) => `${u.email} (${u.role})`).join(", ")}`);
-    await closeDb();
-  })
-  .catch(async (err) => {
+async function main() {
+  const { created, organisationId } = await seedDemo(db());
+  console.log(created ? "[cairn] demo scenario seeded" : "[cairn] demo scenario already present: nothing changed");
+  const made = await seedDemoRecordings(db(), organisationId);
+  if (made) console.log(`[cairn] ${made} demo recordings generated from test patterns and queued for processing`);
+  console.log(`[cairn] demo sign-ins (password ${DEMO_PASSWORD}): ${DEMO_USERS.map((u) => `${u.email} (${u.role})`).join(", ")}`);
+}
+
+main()
+  .catch((err) => {
     console.error("[cairn] seeding failed:", err);
+    process.exitCode = 1;
+  })
+  .finally(async () => {
+    await closeQueues();
+    await closeRedis();
     await closeDb();
-    process.exit(1);
   });

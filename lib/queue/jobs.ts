@@ -1,6 +1,7 @@
 // Every background job is one member of this map: name -> payload (ids only). The worker's handler
 // table is typed against it, so a job type without a handler does not compile.
 import { Queue, type JobsOptions } from "bullmq";
+import type IORedis from "ioredis";
 import { newRedis } from "./redis";
 import { env } from "@/lib/config/env";
 
@@ -9,6 +10,7 @@ export type JobPayloads = {
   "extract-still": { stillId: string };
   "build-report": { reportId: string };
   "purge-uploads": Record<string, never>;
+  "custody-checkpoints": Record<string, never>;
 };
 export type JobName = keyof JobPayloads;
 
@@ -20,6 +22,7 @@ export const JOB_SETTINGS: Record<JobName, JobSettings> = {
   "extract-still": { attempts: 3, backoffMs: 2_000, timeoutMs: 5 * 60_000, concurrency: 2 },
   "build-report": { attempts: 2, backoffMs: 5_000, timeoutMs: 10 * 60_000, concurrency: 1 },
   "purge-uploads": { attempts: 1, backoffMs: 0, timeoutMs: 10 * 60_000, concurrency: 1 },
+  "custody-checkpoints": { attempts: 3, backoffMs: 30_000, timeoutMs: 10 * 60_000, concurrency: 1 },
 };
 
 /** Deterministic job id: dedupes while the job exists; BullMQ ids may not contain ':' nor be all digits. */
@@ -28,17 +31,23 @@ export function jobIdFor<N extends JobName>(name: N, data: JobPayloads[N]): stri
   return `${name}.${id}`;
 }
 
-const g = globalThis as unknown as { __cairnQueues?: Map<JobName, Queue> };
+// A Queue given a ready-made IORedis instance treats it as shared and leaves it open in close()
+// (BullMQ's connection docs), so each queue's connection is kept beside it and closed with it.
+type OpenQueue = { queue: Queue; connection: IORedis };
+const g = globalThis as unknown as { __cairnQueues?: Map<JobName, OpenQueue> };
 
 export function queue(name: JobName): Queue {
   g.__cairnQueues ??= new Map();
-  let q = g.__cairnQueues.get(name);
-  if (!q) {
-    q = new Queue(name, { connection: newRedis("producer"), prefix: env().QUEUE_PREFIX });
+  let open = g.__cairnQueues.get(name);
+  if (!open) {
+    const connection = newRedis("producer");
+    connection.on("error", () => {});
+    const q = new Queue(name, { connection, prefix: env().QUEUE_PREFIX });
     q.on("error", () => {});
-    g.__cairnQueues.set(name, q);
+    open = { queue: q, connection };
+    g.__cairnQueues.set(name, open);
   }
-  return q;
+  return open.queue;
 }
 
 export async function enqueue<N extends JobName>(name: N, data: JobPayloads[N], extra: JobsOptions = {}): Promise<string> {
@@ -55,7 +64,11 @@ export async function enqueue<N extends JobName>(name: N, data: JobPayloads[N], 
   return jobId;
 }
 
+/** Closes every queue of this process and its Redis connection, so a script can exit on its own. */
 export async function closeQueues(): Promise<void> {
-  for (const q of g.__cairnQueues?.values() ?? []) await q.close().catch(() => {});
+  for (const { queue: q, connection } of g.__cairnQueues?.values() ?? []) {
+    await q.close().catch(() => {});
+    await connection.quit().catch(() => connection.disconnect());
+  }
   g.__cairnQueues?.clear();
 }
