@@ -32,7 +32,7 @@ export async function requireMember(req: Request): Promise<Member> {
   const claims = await readSession(req.headers);
   if (!claims) throw new ApiError("unauthenticated", "Sign in to continue");
   const member = await loadMember(claims);
-  if (!member) throw new ApiError("unauthenticated", "Your membership has ended; sign in again");
+  if (!member) throw new ApiError("unauthenticated", "Your session or membership has ended; sign in again");
   return member;
 }
 

@@ -15,6 +15,7 @@ import { hit, reset, SIGN_IN_LIMITS } from "./rate-limit";
 import { composeMail, sendMail } from "@/lib/mail/send-mail";
 import { cairnAdapter } from "./adapter";
 import { isMemberOf } from "./organisations-of-user";
+import { endSession, startSession } from "./user-sessions";
 
 const credentialsSchema = z.object({ email: z.string().trim().toLowerCase().email().max(320), password: z.string().min(1).max(200) });
 
@@ -80,6 +81,7 @@ export const authOptions: NextAuthOptions = {
       if (user) {
         token.uid = user.id;
         token.org = await firstOrganisationOf(user.id);
+        token.sid = await startSession(user.id);
       }
       // the organisation switcher (useSession().update({ organisationId })): only to an
       // organisation the person belongs to now; anything else leaves the session as it was
@@ -90,7 +92,14 @@ export const authOptions: NextAuthOptions = {
       return token;
     },
     async session({ session, token }) {
-      return { ...session, user: { ...session.user, id: token.uid as string, organisationId: token.org as string | null } };
+      return { ...session, user: { ...session.user, id: token.uid as string, organisationId: token.org as string | null, sessionId: token.sid as string | undefined } };
+    },
+  },
+  events: {
+    // POST /api/auth/signout: the token is still readable here; its session row is ended, so a copy
+    // of the cookie kept anywhere is refused from the next request on
+    async signOut({ token }) {
+      if (typeof token?.sid === "string") await endSession(token.sid);
     },
   },
 };

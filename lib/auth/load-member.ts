@@ -1,7 +1,9 @@
-// Who is asking, in which organisation, with which role: read from the database on every request.
-import { and, eq } from "drizzle-orm";
+// Who is asking, in which organisation, with which role: read from the database on every request,
+// together with the server-side session row (an ended session gives no member) and, for a client
+// account, the organisation's clients whose work it may see.
+import { and, eq, isNull } from "drizzle-orm";
 import { db } from "@/db/client";
-import { memberships, organisations, users } from "@/db/schema";
+import { membershipClients, memberships, organisations, userSessions, users } from "@/db/schema";
 import type { Role } from "@/db/schema/types";
 import type { SessionClaims } from "./read-session";
 
@@ -13,12 +15,21 @@ export type Member = {
   organisationName: string;
   role: Role;
   preferredUnits: "ft" | "m";
+  /** the user_sessions row of this request's session */
+  sessionId: string;
+  /**
+   * The clients whose work this member may see: null for the crew (everything in the organisation),
+   * a list (possibly empty) for a client account.
+   */
+  clientIds: string[] | null;
 };
 
+/** Null when the session was ended on the server (sign-out, password or role change, removal) or the membership is gone. */
 export async function loadMember(claims: SessionClaims): Promise<Member | null> {
-  if (!claims.organisationId) return null;
+  if (!claims.organisationId || !claims.sessionId) return null;
   const [row] = await db()
     .select({
+      membershipId: memberships.id,
       userId: users.id,
       email: users.email,
       name: users.name,
@@ -26,10 +37,19 @@ export async function loadMember(claims: SessionClaims): Promise<Member | null> 
       organisationName: organisations.name,
       role: memberships.role,
       preferredUnits: users.preferredUnits,
+      sessionId: userSessions.id,
     })
     .from(memberships)
     .innerJoin(users, eq(users.id, memberships.userId))
     .innerJoin(organisations, eq(organisations.id, memberships.organisationId))
+    .innerJoin(userSessions, and(eq(userSessions.id, claims.sessionId), eq(userSessions.userId, users.id), isNull(userSessions.endedAt)))
     .where(and(eq(memberships.userId, claims.userId), eq(memberships.organisationId, claims.organisationId)));
-  return row ?? null;
+  if (!row) return null;
+  const { membershipId, ...member } = row;
+  if (member.role !== "client") return { ...member, clientIds: null };
+  const tied = await db()
+    .select({ clientId: membershipClients.clientId })
+    .from(membershipClients)
+    .where(and(eq(membershipClients.membershipId, membershipId), eq(membershipClients.organisationId, member.organisationId)));
+  return { ...member, clientIds: tied.map((t) => t.clientId) };
 }

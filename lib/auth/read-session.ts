@@ -17,7 +17,8 @@ export function parseCookies(header: string | null): Map<string, string> {
   return out;
 }
 
-export type SessionClaims = { userId: string; organisationId: string | null };
+/** `sessionId` names the user_sessions row the token belongs to; a token without one is refused. */
+export type SessionClaims = { userId: string; organisationId: string | null; sessionId: string };
 
 export async function readSession(headers: Headers): Promise<SessionClaims | null> {
   const cookies = parseCookies(headers.get("cookie"));
@@ -32,7 +33,9 @@ export async function readSession(headers: Headers): Promise<SessionClaims | nul
     if (!raw) continue;
     try {
       const token = await decode({ token: raw, secret: env().NEXTAUTH_SECRET });
-      if (token && typeof token.uid === "string") return { userId: token.uid, organisationId: (token.org as string | null) ?? null };
+      if (token && typeof token.uid === "string" && typeof token.sid === "string")
+        return { userId: token.uid, organisationId: (token.org as string | null) ?? null, sessionId: token.sid };
+      return null;
     } catch {
       return null;
     }

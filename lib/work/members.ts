@@ -6,6 +6,7 @@ import { jobs, memberships, users } from "@/db/schema";
 import type { Role } from "@/db/schema/types";
 import { ApiError, notFound } from "@/lib/api/errors";
 import { pageOf, totalCount, type ListParams } from "@/lib/api/list";
+import { endSessionsOf } from "@/lib/auth/user-sessions";
 
 // owners first, then the crew who fly and review, then client accounts
 const ROLE_ORDER = sql`array_position(array['owner','pilot','reviewer','client']::member_role[], ${memberships.role})`;
@@ -70,6 +71,8 @@ export async function changeMemberRole(orgId: string, userId: string, role: Role
       .set({ role, updatedAt: new Date() })
       .where(eq(memberships.id, m.id))
       .returning({ userId: memberships.userId, role: memberships.role });
+    // the person's open sessions end: the next request signs in again and meets the new role
+    if (m.role !== role) await endSessionsOf(userId, tx);
     return row;
   });
 }
@@ -82,6 +85,7 @@ export async function removeMember(orgId: string, userId: string) {
       throw new ApiError("conflict", "This is the organisation's last owner and cannot be removed.");
     }
     await tx.delete(memberships).where(eq(memberships.id, m.id));
+    await endSessionsOf(userId, tx);
     // open assignments go back to the owners to fill; flights keep who actually flew them
     await tx.update(jobs).set({ pilotId: null, updatedAt: new Date() }).where(and(eq(jobs.organisationId, orgId), eq(jobs.pilotId, userId)));
     await tx.update(jobs).set({ reviewerId: null, updatedAt: new Date() }).where(and(eq(jobs.organisationId, orgId), eq(jobs.reviewerId, userId)));

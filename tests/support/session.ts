@@ -5,12 +5,15 @@ import { and, eq } from "drizzle-orm";
 import { db } from "@/db/client";
 import { memberships, organisations, users } from "@/db/schema";
 import { env } from "@/lib/config/env";
+import { startSession } from "@/lib/auth/user-sessions";
 import { DEMO_USERS, OTHER_USER } from "@/db/seed/demo-scenario";
 
 export type Actor = { userId: string; organisationId: string } | null;
 
-export async function sessionCookie(actor: NonNullable<Actor>): Promise<string> {
-  const token = await encode({ token: { uid: actor.userId, org: actor.organisationId, sub: actor.userId }, secret: env().NEXTAUTH_SECRET });
+/** A fresh session (its own user_sessions row, as a sign-in opens) unless `sessionId` names one. */
+export async function sessionCookie(actor: NonNullable<Actor>, sessionId?: string): Promise<string> {
+  const sid = sessionId ?? (await startSession(actor.userId));
+  const token = await encode({ token: { uid: actor.userId, org: actor.organisationId, sub: actor.userId, sid }, secret: env().NEXTAUTH_SECRET });
   return `next-auth.session-token=${token}`;
 }
 

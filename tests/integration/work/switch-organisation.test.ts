@@ -10,6 +10,7 @@ import { memberships } from "@/db/schema";
 import { authOptions } from "@/lib/auth/auth-options";
 import { loadMember } from "@/lib/auth/load-member";
 import { organisationsOfUser } from "@/lib/auth/organisations-of-user";
+import { startSession } from "@/lib/auth/user-sessions";
 import { demoActors, type Actor, type DemoActorKey } from "@/tests/support/session";
 
 let actors: Record<DemoActorKey, Actor>;
@@ -49,7 +50,7 @@ describe("switching the active organisation", () => {
   it("moves the session to an organisation the person belongs to; requests then act there with that role", async () => {
     const token = await update(tokenFor(home), { organisationId: second });
     expect(token.org).toBe(second);
-    const member = await loadMember({ userId: pilotId, organisationId: token.org as string });
+    const member = await loadMember({ userId: pilotId, organisationId: token.org as string, sessionId: await startSession(pilotId) });
     expect(member).toMatchObject({ organisationId: second, role: "reviewer" });
   });
 
