@@ -11,6 +11,8 @@ import type { FrameRate } from "@/lib/timecode/frame-rate";
 import { attachPlaybackAnalytics } from "./attach-playback-analytics";
 import { frameOnScreen, seekTimeForFrame } from "./frame-seek";
 import { ThumbnailPreview } from "./thumbnail-preview";
+import { attachDecodeRecovery, type DecodeRecoveryNote } from "./attach-decode-recovery";
+import { DecodeRecoveryMessage } from "./decode-recovery-message";
 import { PLAYBACK_RATES } from "./review-shortcuts";
 
 export type Player = ReturnType<typeof videojs>;
@@ -55,6 +57,7 @@ export const ReviewPlayer = forwardRef<ReviewPlayerHandle, Props>(function Revie
   const playerRef = useRef<Player | null>(null);
   const [player, setPlayer] = useState<Player | null>(null);
   const [rect, setRect] = useState<PictureRect | null>(null);
+  const [recoveryNote, setRecoveryNote] = useState<DecodeRecoveryNote | null>(null);
   const frameRef = useRef(startFrame ?? 0);
   const callbacks = useRef(props);
   callbacks.current = props;
@@ -74,7 +77,9 @@ export const ReviewPlayer = forwardRef<ReviewPlayerHandle, Props>(function Revie
       sources: [{ src, type: "video/mp4" }],
       // our own shortcuts handle the keyboard (video.js would also take arrows and space)
       userActions: { hotkeys: false },
-      controlBar: { pictureInPictureToggle: false },
+      // the readout under the player gives time and length on the recorder's clock; video.js's own
+      // displays (whole seconds, remaining time as "-0:10") would be a second, rounder account of it
+      controlBar: { pictureInPictureToggle: false, currentTimeDisplay: false, timeDivider: false, durationDisplay: false, remainingTimeDisplay: false },
       // a reviewer works paused most of the time: the controls never fade out
       inactivityTimeout: 0,
     });
@@ -137,6 +142,12 @@ export const ReviewPlayer = forwardRef<ReviewPlayerHandle, Props>(function Revie
     const ro = new ResizeObserver(measure);
     ro.observe(p.el());
 
+    attachDecodeRecovery(p, {
+      currentSrc: () => src,
+      frameSec: rate.den / rate.num,
+      onNote: setRecoveryNote,
+      onResumed: (sec) => report(sec),
+    });
     if (analytics) {
       attachPlaybackAnalytics(p, { recordingId: analytics.recordingId, title, playerName: "Cairn review room", viewerUserId: analytics.viewerUserId }, () => !disposed);
     }
@@ -208,6 +219,7 @@ export const ReviewPlayer = forwardRef<ReviewPlayerHandle, Props>(function Revie
           {props.renderOverlay(rect)}
         </div>
       )}
+      {recoveryNote && <DecodeRecoveryMessage note={recoveryNote} onDismiss={() => setRecoveryNote(null)} />}
       {player && thumbnailsUrl && <ThumbnailPreview player={player} trackUrl={thumbnailsUrl} durationSec={durationSec} container={wrapper} />}
     </div>
   );

@@ -2,10 +2,13 @@
 // A plain, read-only video.js player for the client's page. Created in an effect and disposed on
 // cleanup (video.js breaks under StrictMode's double mount otherwise: STACK-NOTES.md). A new source
 // (another recording, or a fresh signed address after the old one expired) keeps the position.
-import { forwardRef, useEffect, useImperativeHandle, useRef } from "react";
+import { forwardRef, useEffect, useImperativeHandle, useRef, useState } from "react";
 import videojs from "video.js";
 import "video.js/dist/video-js.css";
 import { attachPlaybackAnalytics } from "@/components/player/attach-playback-analytics";
+import { attachDecodeRecovery, type DecodeRecoveryNote } from "@/components/player/attach-decode-recovery";
+import { DecodeRecoveryMessage } from "@/components/player/decode-recovery-message";
+import { MEDIA_ERR_DECODE } from "@/components/player/decode-recovery";
 
 type Player = ReturnType<typeof videojs>;
 
@@ -24,6 +27,8 @@ type Props = {
   onSourceError?: () => void;
   /** counts this viewing for the share link in the recording's playback analytics */
   analytics?: { recordingId: string; title: string };
+  /** one frame's length, seconds (the decode-error safety net never resumes past the last frame) */
+  frameSec?: number;
 };
 
 /** The signed grant at the end of a share media address (/api/s/media/<grant>): the view's access token. */
@@ -31,13 +36,14 @@ function grantOf(src: string): string | undefined {
   return new URL(src, window.location.href).pathname.split("/").pop() || undefined;
 }
 
-export const SharePlayer = forwardRef<SharePlayerHandle, Props>(function SharePlayer({ src, poster, thumbnails, label, startAt, onTime, onDuration, onSourceError, analytics }, ref) {
+export const SharePlayer = forwardRef<SharePlayerHandle, Props>(function SharePlayer({ src, poster, thumbnails, label, startAt, onTime, onDuration, onSourceError, analytics, frameSec }, ref) {
   const holder = useRef<HTMLDivElement>(null);
   const player = useRef<Player | null>(null);
   const callbacks = useRef({ onTime, onDuration, onSourceError });
   callbacks.current = { onTime, onDuration, onSourceError };
   const lastTime = useRef(0);
   const currentSrc = useRef(src);
+  const [recoveryNote, setRecoveryNote] = useState<DecodeRecoveryNote | null>(null);
 
   useEffect(() => {
     const el = document.createElement("video-js");
@@ -50,6 +56,9 @@ export const SharePlayer = forwardRef<SharePlayerHandle, Props>(function SharePl
       preload: "auto",
       playsinline: true,
       playbackRates: [0.25, 0.5, 1, 1.5, 2],
+      // the line under the player gives position and length in the same frame times as the findings;
+      // video.js's remaining time ("-0:10") would be a second, rounder account of it
+      controlBar: { remainingTimeDisplay: false },
       poster: poster ?? undefined,
       sources: [{ src: currentSrc.current, type: "video/mp4" }],
     });
@@ -60,7 +69,14 @@ export const SharePlayer = forwardRef<SharePlayerHandle, Props>(function SharePl
     });
     p.on("loadedmetadata", () => callbacks.current.onDuration?.(p.duration() ?? 0));
     if (startAt) p.one("loadedmetadata", () => p.currentTime(startAt));
-    p.on("error", () => callbacks.current.onSourceError?.());
+    // a picture the browser cannot decode is handled by the safety net (reload, resume past it);
+    // only a source that fails to load asks the page for fresh addresses
+    attachDecodeRecovery(p, { currentSrc: () => currentSrc.current, frameSec: frameSec ?? 1 / 30, onNote: setRecoveryNote, onResumed: (t) => callbacks.current.onTime?.(t) });
+    p.on("error", () => {
+      const e = p.error();
+      if (!e || e.code === MEDIA_ERR_DECODE) return;
+      callbacks.current.onSourceError?.();
+    });
     player.current = p;
     let disposed = false;
     if (analytics) attachPlaybackAnalytics(p, { ...analytics, playerName: "Cairn shared page", accessToken: grantOf(currentSrc.current) }, () => !disposed);
@@ -107,5 +123,10 @@ export const SharePlayer = forwardRef<SharePlayerHandle, Props>(function SharePl
     },
   }));
 
-  return <div ref={holder} data-vjs-player className="overflow-hidden rounded-md border border-line bg-black" />;
+  return (
+    <div>
+      <div ref={holder} data-vjs-player className="overflow-hidden rounded-md border border-line bg-black" />
+      {recoveryNote && <DecodeRecoveryMessage note={recoveryNote} onDismiss={() => setRecoveryNote(null)} />}
+    </div>
+  );
 });
