@@ -204,7 +204,7 @@ function ReviewRoom({
           )}
         />
         <div className="flex flex-wrap items-center gap-3 rounded-md border border-line bg-paper-2 px-3 py-2">
-          <TimecodeReadout frame={frame} rate={rate} frameCount={frameCount} fps={fps} playbackRate={playbackRate} />
+          <TimecodeReadout frame={frame} rate={rate} frameCount={frameCount} fps={fps} playbackRate={playbackRate} durationSec={durationSec} lost={timing.lost} />
           <div className="ml-auto flex flex-wrap items-center gap-1">
             <Button type="button" variant="secondary" className="px-3" onClick={() => player.current?.stepFrames(-1)} aria-label="One frame back">
               ◀︎ Frame
@@ -253,9 +253,11 @@ function ReviewRoom({
         <RecordingTracePanel
           recordingId={recording.id}
           playableDurationSec={durationSec}
-          currentSec={frame / fps}
+          currentSec={(frame * rate.den) / rate.num}
+          figures={data.figures}
+          rate={rate}
           onSeek={(sec) => {
-            const f = Math.min(frameCount - 1, Math.floor(sec * fps + 1e-6));
+            const f = Math.min(frameCount - 1, Math.floor((sec * rate.num) / rate.den + 1e-6));
             player.current?.seekToFrame(f);
             setFrame(f);
           }}

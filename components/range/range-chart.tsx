@@ -100,7 +100,7 @@ export function RangeChart({ flightId, flightLabel, units }: { flightId: string 
               </ResponsiveContainer>
             </div>
             <figcaption className="px-2 pt-1 text-xs text-ink-2">
-              Each point is one range check: ● first degradation, ▲ total loss, ■ reacquired, grouped by {CHART_DIMENSION_LABELS[by].toLowerCase()}. The table below
+              Each point is one range check: ● picture breaking up, ▲ video lost, ■ video back, grouped by {CHART_DIMENSION_LABELS[by].toLowerCase()}. The table below
               holds the same figures.
             </figcaption>
           </figure>

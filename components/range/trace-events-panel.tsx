@@ -4,6 +4,7 @@ import { useQuery } from "@tanstack/react-query";
 import { fetchJson } from "@/components/fetch-json";
 import { formatSeconds } from "@/lib/range/format-figures";
 import { LinkEventMark } from "./link-event-mark";
+import { LINK_EVENT_META } from "@/lib/range/link-events";
 import type { TraceEventItem, TraceEventsAnswer } from "./range-check-types";
 
 export function TraceEventsPanel({
@@ -26,7 +27,7 @@ export function TraceEventsPanel({
         Link events in the signal trace
       </h2>
       <p className="max-w-3xl text-sm text-ink-2">
-        Where the flight&apos;s recordings show damaged or lost video, each change is listed here. “Log range check” opens the form with the event and its time
+        Where the flight&apos;s recordings show the picture breaking up or the video lost, each change is listed here. “Log range check” opens the form with the event and its time
         filled in from the trace and the height prefilled from the flight; you add where the aircraft was.
       </p>
       {query.isError ? (
@@ -49,7 +50,7 @@ export function TraceEventsPanel({
               <span className="font-mono tabular">at {formatSeconds(ev.atSec)}</span>
               <span className="text-ink-2">
                 of <span className="font-mono">{ev.recordingName}</span>
-                {ev.state !== "intact" && <> · {ev.state === "lost" ? "lost" : "damaged"} for {formatSeconds(ev.durationSec)}</>}
+                {ev.state !== "intact" && <> · {ev.state === "lost" ? "video lost" : "picture breaking up"} for {formatSeconds(ev.durationSec)}</>}
               </span>
               <span className="ml-auto">
                 {ev.rangeCheckId ? (
@@ -61,7 +62,7 @@ export function TraceEventsPanel({
                     type="button"
                     onClick={() => onLog(ev, data.prefill)}
                     className="min-h-10 rounded-md border border-lake px-3 font-medium text-lake hover:bg-lake-soft"
-                    aria-label={`Log range check: ${ev.event.replace("_", " ")} at ${formatSeconds(ev.atSec)} of ${ev.recordingName}`}
+                    aria-label={`Log range check: ${LINK_EVENT_META[ev.event].label} at ${formatSeconds(ev.atSec)} of ${ev.recordingName}`}
                   >
                     Log range check
                   </button>

@@ -8,6 +8,10 @@ import { useCallback, useEffect, useMemo, useRef, useState } from "react";
 import { CairnMark } from "@/components/ui/cairn-mark";
 import { HashText } from "@/components/ui/hash-text";
 import { formatClockTime } from "@/lib/timecode/format-clock-time";
+import { describeMoment } from "@/lib/findings/describe-moment";
+import { frameRateFromFps } from "@/lib/findings/recording-frame-rate";
+import type { FrameRate } from "@/lib/timecode/frame-rate";
+import { frameOnScreen, seekTimeForFrame } from "@/components/player/frame-seek";
 import type { ShareView, ShareViewFinding } from "@/lib/sharing/build-share-view";
 import { SharePlayer, type SharePlayerHandle } from "./share-player";
 import { FindingTimeline } from "./finding-timeline";
@@ -26,6 +30,17 @@ function formatBytes(n: number | null): string {
     i++;
   }
   return `${v.toFixed(1)} ${units[i]}`;
+}
+
+// The recording's exact frame rate, when it is known: times on this page are then frame times, the
+// same labels the review room, the findings and the report give for the same moment.
+function rateOf(fps: number | null | undefined): FrameRate | null {
+  if (!fps) return null;
+  try {
+    return frameRateFromFps(fps);
+  } catch {
+    return null;
+  }
 }
 
 export function ShareViewer({ initialView, gatePath, manifestPath }: { initialView: ShareView; gatePath: string; manifestPath: string }) {
@@ -54,20 +69,34 @@ export function ShareViewer({ initialView, gatePath, manifestPath }: { initialVi
   }, [view.addressesExpireAt, refresh]);
 
   const recording = view.recordings.find((r) => r.id === recordingId) ?? null;
-  const durationSec = duration || recording?.durationSec || 0;
+  // the stored duration (the recorder's frame slots over the frame rate) is the one every page shows
+  const durationSec = recording?.durationSec || duration || 0;
+  const rate = rateOf(recording?.fps);
+  const frameCount = rate ? Math.max(1, Math.round((durationSec * rate.num) / rate.den)) : 0;
+  const positionLabel = rate && frameCount > 0 ? describeMoment(frameOnScreen(current, rate, frameCount), rate).clock : formatClockTime(current);
+  const findingLabel = (f: ShareViewFinding) => {
+    const r = rateOf(view.recordings.find((x) => x.id === f.recordingId)?.fps);
+    return r ? describeMoment(f.startFrame, r).clock : formatClockTime(f.startSec);
+  };
+  const findingSeekSec = (f: ShareViewFinding) => {
+    const rec = view.recordings.find((x) => x.id === f.recordingId);
+    const r = rateOf(rec?.fps);
+    return r ? seekTimeForFrame(f.startFrame, r, Number.MAX_SAFE_INTEGER) : f.startSec;
+  };
   const findingsHere = useMemo(() => view.findings.filter((f) => f.recordingId === recordingId), [view.findings, recordingId]);
   const nameOf = (id: string) => view.recordings.find((r) => r.id === id)?.name ?? "";
 
   const jump = (f: ShareViewFinding) => {
     setSelected(f.id);
+    const at = findingSeekSec(f);
     if (f.recordingId !== recordingId) {
-      setStartAt(f.startSec);
+      setStartAt(at);
       setDuration(0);
       setRecordingId(f.recordingId);
-      setCurrent(f.startSec);
+      setCurrent(at);
       return;
     }
-    player.current?.seek(f.startSec);
+    player.current?.seek(at);
   };
 
   return (
@@ -129,6 +158,7 @@ export function ShareViewer({ initialView, gatePath, manifestPath }: { initialVi
                   onTime={setCurrent}
                   onDuration={setDuration}
                   onSourceError={() => void refresh()}
+                  frameSec={rate ? rate.den / rate.num : undefined}
                   analytics={{ recordingId: recording.id, title: recording.name }}
                 />
               ) : (
@@ -140,7 +170,7 @@ export function ShareViewer({ initialView, gatePath, manifestPath }: { initialVi
                 <>
                   <p className="mt-2 font-mono text-sm tabular" aria-live="off">
                     <span className="sr-only">Position </span>
-                    <span data-testid="share-current-time">{formatClockTime(current)}</span>
+                    <span data-testid="share-current-time">{positionLabel}</span>
                     {durationSec > 0 && <span className="text-ink-2"> / {formatClockTime(durationSec)}</span>}
                   </p>
                   <FindingTimeline findings={findingsHere} durationSec={durationSec} currentSec={current} onJump={jump} />
@@ -172,7 +202,7 @@ export function ShareViewer({ initialView, gatePath, manifestPath }: { initialVi
                         )}
                       </div>
                       <button type="button" onClick={() => jump(f)} className="mt-2 min-h-10 rounded-md border border-line px-3 text-sm hover:bg-paper-2">
-                        Jump to <span className="font-mono tabular">{formatClockTime(f.startSec)}</span>
+                        Jump to <span className="font-mono tabular">{findingLabel(f)}</span>
                       </button>
                     </li>
                   ))}

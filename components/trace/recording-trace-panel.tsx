@@ -1,8 +1,13 @@
 "use client";
 // The signal trace of one recording, embeddable under a player: fetches /api/recordings/:id/trace and
-// shows the band on the playable's clock, the summary, and why there is no trace when there is none.
+// shows the band, the numbered link events and the summary, or why there is no trace. With the stored
+// figures (lib/media/recording-figures.ts) the rendition keeps the recorder's time, so band, player and
+// list share one clock and the summary is the stored one; a recording processed before figures existed
+// keeps the older mapping onto the playable's clock.
 import { useQuery } from "@tanstack/react-query";
 import { fetchJson } from "@/components/fetch-json";
+import type { RecordingFigures } from "@/lib/media/recording-figures";
+import type { FrameRate } from "@/lib/timecode/frame-rate";
 import { TraceBand } from "./trace-band";
 import { TraceSummaryLine } from "./trace-summary";
 import type { BandInterval } from "./layout-trace-band";
@@ -22,12 +27,16 @@ export function RecordingTracePanel({
   playableDurationSec,
   currentSec,
   onSeek,
+  figures = null,
+  rate,
 }: {
   recordingId: string;
   /** The playable's duration: the band lines up with the player's timeline. */
   playableDurationSec: number | null;
   currentSec?: number;
   onSeek?: (sec: number) => void;
+  figures?: RecordingFigures | null;
+  rate?: FrameRate;
 }) {
   const q = useQuery({
     queryKey: ["recording-trace", recordingId],
@@ -37,15 +46,44 @@ export function RecordingTracePanel({
   if (q.isError) return <p className="text-sm text-bad">The signal trace could not be loaded: {q.error.message}</p>;
   const t = q.data;
   if (!t.applicable) return <p className="text-sm text-ink-2">Signal trace: {t.reason}</p>;
-  const total = playableDurationSec ?? Math.max(0, ...t.intervals.map((i) => i.playableEndSec));
+  const recorderClock = !!figures;
+  const total = figures ? figures.durationSeconds : (playableDurationSec ?? Math.max(0, ...t.intervals.map((i) => i.playableEndSec)));
+  // the first interval that is not intact: the summary's first degradation can never say "none" beside a loss
+  const firstTrouble = t.intervals.find((i) => i.state !== "intact");
+  const summary = figures
+    ? {
+        intactShare: figures.intactShare,
+        firstDegradationSec: figures.firstDegradationSeconds ?? firstTrouble?.startSec ?? null,
+        longestLossSec: figures.longestLossSeconds,
+        lost: { frames: figures.framesLost, isLowerBound: figures.framesLostIsLowerBound },
+        damagedFrames: figures.framesDamaged,
+      }
+    : {
+        intactShare: t.summary.intactShare,
+        firstDegradationSec: t.summary.firstDegradationSec ?? firstTrouble?.startSec ?? null,
+        longestLossSec: t.summary.longestLossSec,
+        lost: { frames: t.summary.lostFrames, isLowerBound: false },
+        damagedFrames: t.summary.damagedFrames,
+      };
   return (
     <section aria-label="Signal trace" className="flex flex-col gap-2">
-      <TraceBand intervals={t.intervals} totalSec={total} clock="playable" currentSec={currentSec} onSeek={onSeek} />
-      <TraceSummaryLine intactShare={t.summary.intactShare} firstDegradationSec={t.summary.firstDegradationSec} longestLossSec={t.summary.longestLossSec} />
+      <TraceBand
+        intervals={t.intervals}
+        totalSec={total}
+        clock={recorderClock ? "recorder" : "playable"}
+        currentSec={currentSec}
+        onSeek={onSeek}
+        rate={rate}
+        lostIsLowerBound={figures?.framesLostIsLowerBound ?? false}
+      />
+      <TraceSummaryLine {...summary} />
       <p className="text-xs text-ink-2">
         From the H.264 stream itself (frame_num gaps, unreadable slices, recovery), cross-checked with ffmpeg&apos;s decoder
-        {t.decoderErrorFrameCount > 0 ? `, which reported errors in ${t.decoderErrorFrameCount} frame${t.decoderErrorFrameCount === 1 ? "" : "s"}` : ""}. Times of
-        first degradation and longest loss are on the recorder&apos;s clock (lost frames count); the band follows the player.
+        {t.decoderErrorFrameCount > 0 ? `, which reported errors in ${t.decoderErrorFrameCount} frame${t.decoderErrorFrameCount === 1 ? "" : "s"}` : ""}.{" "}
+        {recorderClock
+          ? "All times are on the recorder's clock: lost frames keep their place, and the player holds the last frame for their length."
+          : "Times of first degradation and longest loss are on the recorder's clock (lost frames count); the band follows the player."}
+        {figures?.framesLostIsLowerBound ? " Some frames were lost where the stream cannot tell how many: the lost count is a lower bound." : ""}
       </p>
     </section>
   );

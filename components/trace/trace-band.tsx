@@ -1,8 +1,14 @@
 "use client";
-// The link-state band under a timeline: intact solid, damaged hatched, lost empty with a dashed
-// outline (classes in app/globals.css), each interval labelled on hover, and the same intervals in an
-// accessible list whose entries seek. Colour never carries the meaning alone: pattern and word do.
-import { layoutTraceBand, STATE_MEANINGS, STATE_WORDS, type BandInterval, type LinkState } from "./layout-trace-band";
+// The link-state band under a timeline: clear picture solid, picture breaking up hatched, video lost
+// as an empty dashed box, each at least MIN_MARK_WIDTH_PX wide; above it each link event's shape and
+// number; beside it the same events as a numbered list in time order, each a button that seeks (the
+// keyboard path: Tab to an event, Enter). Colour never carries the meaning alone: shape, pattern,
+// number and words do.
+import { LinkEventShape } from "@/components/range/link-event-mark";
+import { formatFrameClockTime } from "@/lib/timecode/format-frame-clock-time";
+import { formatClockTime } from "@/lib/timecode/format-clock-time";
+import type { FrameRate } from "@/lib/timecode/frame-rate";
+import { bandEvents, layoutTraceBand, MIN_MARK_WIDTH_PX, STATE_MEANINGS, STATE_WORDS, type BandInterval, type LinkState } from "./layout-trace-band";
 
 export function TraceBand({
   intervals,
@@ -11,6 +17,8 @@ export function TraceBand({
   currentSec,
   onSeek,
   label = "Signal trace",
+  rate,
+  lostIsLowerBound = false,
 }: {
   intervals: BandInterval[];
   totalSec: number;
@@ -18,47 +26,84 @@ export function TraceBand({
   currentSec?: number;
   onSeek?: (sec: number) => void;
   label?: string;
+  /** the recording's exact frame rate: event times then read as frame times (the player's labels) */
+  rate?: FrameRate;
+  /** the recording's lost count is a lower bound: lost intervals read "at least N frames" */
+  lostIsLowerBound?: boolean;
 }) {
-  const segments = layoutTraceBand(intervals, clock, totalSec);
-  const degraded = segments.filter((s) => s.state !== "intact");
+  const segments = layoutTraceBand(intervals, clock, totalSec, lostIsLowerBound);
+  const events = bandEvents(intervals, clock, lostIsLowerBound);
+  const timeOf = (e: { atFrame: number; atSec: number }) => (rate ? formatFrameClockTime(e.atFrame, rate) : formatClockTime(e.atSec));
+  const pct = (sec: number) => (totalSec > 0 ? Math.min(100, Math.max(0, (sec / totalSec) * 100)) : 0);
   return (
-    <div className="flex flex-col gap-1">
-      <div className="relative h-4 w-full rounded-sm border border-line bg-paper" aria-hidden>
+    <div className="flex flex-col gap-1" data-testid="trace-band">
+      {/* event marks: shape and number above the band, where each event happens */}
+      <div className="relative h-4 w-full" aria-hidden>
+        {events.map((e) => (
+          <span
+            key={e.n}
+            className="absolute top-0 flex -translate-x-1/2 items-center gap-px text-[10px] leading-none text-ink"
+            style={{ left: `${pct(e.atSec)}%` }}
+            title={`${e.n}. ${e.word} at ${timeOf(e)}`}
+          >
+            <LinkEventShape event={e.event} size={9} />
+            {e.n}
+          </span>
+        ))}
+      </div>
+      <div className="relative h-6 w-full rounded-sm border border-line bg-paper" aria-hidden>
         {segments.map((s, i) => (
           <button
             key={i}
             type="button"
             tabIndex={-1}
             title={s.label}
+            data-state={s.state}
             onClick={() => onSeek?.(s.atSec)}
-            className={`band-${s.state} absolute top-0.5 bottom-0.5 ${onSeek ? "cursor-pointer" : "cursor-default"}`}
-            style={{ left: `${s.leftPct}%`, width: `${s.widthPct}%` }}
+            className={`band-${s.state} absolute top-0.5 bottom-0.5 ${s.state === "lost" ? "z-10 bg-bad-soft" : s.state === "damaged" ? "z-[5]" : ""} ${onSeek ? "cursor-pointer" : "cursor-default"}`}
+            style={{ left: `${s.leftPct}%`, width: s.state === "intact" ? `${s.widthPct}%` : `max(${MIN_MARK_WIDTH_PX}px, ${s.widthPct}%)` }}
           />
         ))}
-        {currentSec !== undefined && totalSec > 0 && (
-          <span className="absolute -top-0.5 -bottom-0.5 w-0.5 bg-lake" style={{ left: `${Math.min(100, (currentSec / totalSec) * 100)}%` }} />
-        )}
+        {currentSec !== undefined && totalSec > 0 && <span className="absolute -top-0.5 -bottom-0.5 z-20 w-0.5 bg-lake" style={{ left: `${pct(currentSec)}%` }} />}
       </div>
       <BandLegend />
-      <details className="text-xs">
-        <summary className="cursor-pointer text-ink-2">
-          {label}: {intervals.length === 1 && intervals[0].state === "intact" ? "intact throughout" : `${degraded.length} degraded interval${degraded.length === 1 ? "" : "s"}`} (list)
-        </summary>
-        <ol className="mt-1 flex max-h-48 flex-col gap-0.5 overflow-y-auto font-mono tabular" aria-label={`${label} intervals`}>
-          {segments.map((s, i) => (
-            <li key={i} className="flex items-center gap-2">
-              <span className={`band-${s.state} inline-block h-3 w-6 shrink-0 rounded-sm`} aria-hidden />
-              {onSeek ? (
-                <button type="button" className="text-left underline-offset-2 hover:underline" onClick={() => onSeek(s.atSec)}>
-                  {s.label}
-                </button>
-              ) : (
-                <span>{s.label}</span>
-              )}
-            </li>
-          ))}
-        </ol>
-      </details>
+      <div className="text-xs">
+        <p className="text-ink-2" data-testid="trace-event-count">
+          {label}: {events.length === 0 ? (intervals.length > 0 ? "picture clear throughout" : "no frames") : `${events.length} link event${events.length === 1 ? "" : "s"}, in time order`}
+        </p>
+        {events.length > 0 && (
+          <ol className="mt-1 flex max-h-56 flex-col gap-0.5 overflow-y-auto pr-1 font-mono tabular" aria-label={`${label}: link events in time order`} data-testid="trace-events-list">
+            {events.map((e) => {
+              const text = (
+                <>
+                  <span className="w-6 shrink-0 text-right text-ink-2">{e.n}.</span>
+                  <LinkEventShape event={e.event} size={11} />
+                  <span className="font-sans font-medium">{e.word}</span>
+                  <span>at {timeOf(e)}</span>
+                  <span className="text-ink-2">frame {e.atFrame}</span>
+                  {e.lengthWords && <span className="text-ink-2">· {e.lengthWords}</span>}
+                </>
+              );
+              return (
+                <li key={e.n} data-testid="trace-event" data-event={e.event}>
+                  {onSeek ? (
+                    <button
+                      type="button"
+                      className="flex min-h-7 w-full flex-wrap items-center gap-x-2 rounded px-1 text-left hover:bg-paper-2"
+                      onClick={() => onSeek(e.atSec)}
+                      aria-label={`${e.n}. ${e.word} at ${timeOf(e)}, frame ${e.atFrame}${e.lengthWords ? `, ${e.lengthWords}` : ""}: go there`}
+                    >
+                      {text}
+                    </button>
+                  ) : (
+                    <span className="flex flex-wrap items-center gap-x-2 px-1">{text}</span>
+                  )}
+                </li>
+              );
+            })}
+          </ol>
+        )}
+      </div>
     </div>
   );
 }
@@ -69,7 +114,7 @@ export function BandLegend() {
     <ul className="flex flex-wrap gap-x-4 gap-y-1 text-xs text-ink-2" aria-label="Link states">
       {states.map((s) => (
         <li key={s} className="flex items-center gap-1" title={STATE_MEANINGS[s]}>
-          <span className={`band-${s} inline-block h-3 w-5 rounded-sm`} aria-hidden />
+          <span className={`band-${s} inline-block h-3 w-5 rounded-sm ${s === "lost" ? "bg-bad-soft" : ""}`} aria-hidden />
           {STATE_WORDS[s]}
         </li>
       ))}

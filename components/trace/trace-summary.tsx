@@ -1,26 +1,55 @@
-// The signal trace in three figures: share of intact frames, when the link first degraded, and the
-// longest loss. Used for one recording and for a whole flight.
+// The signal trace in a few figures: share of intact frames, when the picture first broke up or the
+// video was first lost, the longest loss, and the lost and damaged frame counts ("at least N" when the
+// count is a lower bound). Used for one recording and for a whole flight. The figures never contradict
+// each other on screen: with any loss or damage, "first degradation" is never "none".
 import { formatClockTime } from "@/lib/timecode/format-clock-time";
+import { describeLost } from "@/components/player/describe-frame-count";
+
+export function describeFirstDegradation(firstDegradationSec: number | null, anyTrouble: boolean, scope: "recording" | "flight"): string {
+  if (firstDegradationSec !== null) return `at ${formatClockTime(firstDegradationSec)}${scope === "flight" ? " (flight time)" : ""}`;
+  return anyTrouble ? (scope === "flight" ? "time not known (a gap between files is of unknown length)" : "time not known") : "none";
+}
 
 export function TraceSummaryLine({
   intactShare,
   firstDegradationSec,
   longestLossSec,
+  lost,
+  damagedFrames,
   scope = "recording",
 }: {
   intactShare: number | null;
   firstDegradationSec: number | null;
   longestLossSec: number;
+  lost?: { frames: number; isLowerBound: boolean } | null;
+  damagedFrames?: number | null;
   scope?: "recording" | "flight";
 }) {
+  const anyTrouble = longestLossSec > 0 || (intactShare !== null && intactShare < 1) || (lost?.frames ?? 0) > 0 || (damagedFrames ?? 0) > 0;
   return (
-    <dl className="grid grid-cols-[auto_1fr] gap-x-3 gap-y-0.5 text-sm sm:grid-cols-[auto_auto_auto_auto_auto_auto]">
+    <dl className="grid grid-cols-[auto_1fr] gap-x-3 gap-y-0.5 text-sm sm:grid-cols-[auto_auto_auto_auto_auto_auto]" data-testid="trace-summary">
       <dt className="text-ink-2">Intact</dt>
       <dd className="font-mono tabular">{intactShare === null ? "no trace" : `${(intactShare * 100).toFixed(1)} % of frames`}</dd>
       <dt className="text-ink-2">First degradation</dt>
-      <dd className="font-mono tabular">{firstDegradationSec === null ? "none" : `at ${formatClockTime(firstDegradationSec)}${scope === "flight" ? " (flight time)" : ""}`}</dd>
+      <dd className="font-mono tabular" data-testid="first-degradation">
+        {describeFirstDegradation(firstDegradationSec, anyTrouble, scope)}
+      </dd>
       <dt className="text-ink-2">Longest loss</dt>
       <dd className="font-mono tabular">{longestLossSec > 0 ? `${longestLossSec.toFixed(3)} s` : "none"}</dd>
+      {lost && (
+        <>
+          <dt className="text-ink-2">Frames lost</dt>
+          <dd className="font-mono tabular" data-testid="lost-frames">
+            {lost.frames > 0 || lost.isLowerBound ? describeLost(lost).replace(/ lost$/, "") : "none"}
+          </dd>
+        </>
+      )}
+      {damagedFrames !== undefined && damagedFrames !== null && (
+        <>
+          <dt className="text-ink-2">Frames breaking up</dt>
+          <dd className="font-mono tabular">{damagedFrames > 0 ? damagedFrames : "none"}</dd>
+        </>
+      )}
     </dl>
   );
 }

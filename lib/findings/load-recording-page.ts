@@ -5,6 +5,7 @@ import { and, asc, eq, isNull } from "drizzle-orm";
 import { db } from "@/db/client";
 import * as s from "@/db/schema";
 import { recordingFileUrl } from "@/lib/media-access/media-urls";
+import { readRecordingFigures } from "@/lib/media/recording-figures";
 import { recordingTiming } from "./recording-frame-rate";
 
 const fileOf = (key: string) => key.slice(key.lastIndexOf("/") + 1);
@@ -25,6 +26,7 @@ export async function loadRecordingPage(organisationId: string, recordingId: str
       fpsOverride: s.recordings.fpsOverride,
       durationSec: s.recordings.durationSec,
       facts: s.recordings.facts,
+      figures: s.recordings.figures,
       jobId: s.recordings.jobId,
       jobTitle: s.jobs.title,
       flightId: s.recordings.flightId,
@@ -51,7 +53,7 @@ export async function loadRecordingPage(organisationId: string, recordingId: str
   const playable = renditions.find((r) => r.kind === "playable");
 
   const flightFiles = await db()
-    .select({ id: s.recordings.id, name: s.recordings.originalName, durationSec: s.recordings.durationSec, state: s.recordings.state })
+    .select({ id: s.recordings.id, name: s.recordings.originalName, durationSec: s.recordings.durationSec, figures: s.recordings.figures, state: s.recordings.state })
     .from(s.recordings)
     .where(and(eq(s.recordings.organisationId, organisationId), eq(s.recordings.flightId, row.flightId), isNull(s.recordings.deletedAt)))
     .orderBy(asc(s.recordings.sequenceIndex), asc(s.recordings.createdAt));
@@ -76,8 +78,22 @@ export async function loadRecordingPage(organisationId: string, recordingId: str
       height: playable?.height ?? row.facts?.height ?? null,
       fpsSource: row.facts?.fpsSource ?? null,
     },
-    timing: timing ? { rate: timing.rate, fps: timing.fps, frameCount: timing.frameCount, durationSec: timing.durationSec } : null,
+    timing: timing
+      ? {
+          rate: timing.rate,
+          fps: timing.fps,
+          frameCount: timing.frameCount,
+          durationSec: timing.durationSec,
+          lost: timing.lost ?? null,
+          damagedFrames: timing.figures?.signalKnown ? timing.figures.framesDamaged : null,
+          /** true when the rendition keeps the recorder's time (stored figures): player time = slot / rate */
+          recorderClock: !!timing.figures,
+        }
+      : null,
+    /** the worker's stored figures (lib/media/recording-figures.ts), null before they exist */
+    figures: timing?.figures ?? null,
     media: { playable: url("playable"), poster: url("poster"), thumbnails: url("thumbnails_vtt") },
-    flightFiles,
+    // one duration per recording: the stored figures' when there are figures
+    flightFiles: flightFiles.map(({ figures, ...f }) => ({ ...f, durationSec: readRecordingFigures({ figures })?.durationSeconds ?? f.durationSec })),
   };
 }

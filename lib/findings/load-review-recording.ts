@@ -35,6 +35,7 @@ export async function loadReviewRecording(organisationId: string, recordingId: s
       fpsOverride: recordings.fpsOverride,
       durationSec: recordings.durationSec,
       facts: recordings.facts,
+      figures: recordings.figures,
       defaultFps: organisations.defaultControllerFps,
       launchLatitude: flights.launchLatitude,
       launchLongitude: flights.launchLongitude,

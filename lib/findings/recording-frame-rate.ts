@@ -2,6 +2,7 @@
 // fps; frame-exact work needs the ratio, and the NTSC-family rates (N*1000/1001) have no finite
 // decimal, so a decimal within half a thousandth of one of them is read as that ratio.
 import { reduceFrameRate, type FrameRate } from "@/lib/timecode/frame-rate";
+import { readRecordingFigures, type RecordingFigures } from "@/lib/media/recording-figures";
 
 // 23.976, 29.97, 47.952, 59.94, 119.88: the N*1000/1001 family (SMPTE ST 12-1 names 29.97 and 59.94;
 // the others are common practice, no published source here).
@@ -22,14 +23,20 @@ export type RecordingTimingSource = {
   fpsOverride: number | null;
   durationSec: number | null;
   facts: { fps?: number | null; frameCount?: number; durationSec?: number } | null;
+  /** The worker's stored figures (lib/media/recording-figures.ts); when present they decide. */
+  figures?: unknown;
 };
 
 export type RecordingTiming = {
   rate: FrameRate;
   fps: number;
-  /** frames in the playable rendition; the last one is frameCount - 1 */
+  /** recorder frame slots, lost ones included (0 .. frameCount - 1); the rendition keeps one per slot */
   frameCount: number;
   durationSec: number;
+  /** frames that never reached the recorder, and whether that count is only a lower bound */
+  lost?: { frames: number; isLowerBound: boolean } | null;
+  /** the stored figures this timing was read from; null for a recording processed before they existed */
+  figures?: RecordingFigures | null;
 };
 
 /**
@@ -38,6 +45,19 @@ export type RecordingTiming = {
  * stream carries none (controller recordings often do not).
  */
 export function recordingTiming(rec: RecordingTimingSource, organisationDefaultFps: number): RecordingTiming | null {
+  // the stored figures are the one account of a processed recording: slots and their exact rate
+  const figures = readRecordingFigures(rec);
+  if (figures && figures.frameSlots > 0) {
+    const rate = reduceFrameRate(figures.frameRate);
+    return {
+      rate,
+      fps: rate.num / rate.den,
+      frameCount: figures.frameSlots,
+      durationSec: figures.durationSeconds,
+      lost: figures.signalKnown ? { frames: figures.framesLost, isLowerBound: figures.framesLostIsLowerBound } : null,
+      figures,
+    };
+  }
   const fps = rec.fpsOverride ?? rec.facts?.fps ?? organisationDefaultFps;
   if (!fps || !Number.isFinite(fps) || fps <= 0) return null;
   const rate = frameRateFromFps(fps);
@@ -45,5 +65,5 @@ export function recordingTiming(rec: RecordingTimingSource, organisationDefaultF
   const duration = rec.durationSec ?? rec.facts?.durationSec ?? null;
   const frameCount = rec.facts?.frameCount ?? (duration ? Math.round(duration * exactFps) : null);
   if (!frameCount || frameCount < 1) return null;
-  return { rate, fps: exactFps, frameCount, durationSec: duration ?? frameCount / exactFps };
+  return { rate, fps: exactFps, frameCount, durationSec: duration ?? frameCount / exactFps, lost: null, figures: null };
 }

@@ -33,7 +33,7 @@ const orientation = optionalText(80);
 
 /** The fields a pilot fills in, as they arrive; nothing here is converted yet. */
 export const rangeCheckFields = {
-  event: z.enum(LINK_EVENTS, { message: "Choose first degradation, total loss or reacquired" }),
+  event: z.enum(LINK_EVENTS, { message: "Choose picture breaking up, video lost or video back" }),
   atSec: typedNumber("Time into the recording"),
   recordingId: optionalUuid,
   positionBy: z.enum(POSITION_BY, { message: "Choose coordinates, or ground distance and bearing" }),

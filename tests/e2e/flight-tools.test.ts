@@ -126,10 +126,10 @@ describe("flight tools in the browser", () => {
     // first degradation at 10 s, total loss at 12 s, reacquired at 15 s
     const ours = events.locator("li", { hasText: recordingName });
     expect(await ours.count()).toBe(3);
-    await page.getByRole("button", { name: `Log range check: total loss at 12.00 s of ${recordingName}` }).click();
+    await page.getByRole("button", { name: `Log range check: Video lost at 12.00 s of ${recordingName}` }).click();
 
     const dialog = page.getByRole("dialog");
-    expect(await dialog.getByTestId("trace-event-summary").textContent()).toContain("Total loss");
+    expect(await dialog.getByTestId("trace-event-summary").textContent()).toContain("Video lost");
     // prefilled with the flight's logged maximum: 61 m = 200.131 ft
     expect(await dialog.getByLabel("Height above ground level (AGL)").inputValue()).toBe("200.131");
     await dialog.getByLabel("Ground distance from launch").fill("1926");
@@ -166,7 +166,7 @@ describe("flight tools in the browser", () => {
     const lines = text.split("\r\n");
     expect(lines[0]).toBe(RANGE_CHECK_CSV_HEADER.map((h) => `"${h}"`).join(","));
     const line = lines.find((l) => l.includes("Pitched up (browser test)"))!;
-    expect(line).toContain('"Total loss"');
+    expect(line).toContain('"Video lost"');
     expect(line).toContain(`"${recordingName}"`);
     expect(line).toContain(`,1926,`); // ground distance (ft)
     expect(line).toContain(`,${Number(metresToFeet(row.slantRangeM).toFixed(3))},`); // slant range (ft): 1967.098

@@ -34,3 +34,18 @@ describe("recordingTiming", () => {
     expect(recordingTiming({ fpsOverride: null, durationSec: null, facts: { fps: 30 } }, 30)).toBeNull();
   });
 });
+
+describe("recordingTiming from the stored figures", () => {
+  it("counts recorder frame slots (lost included) at the figures' exact rate, and carries the lost count", async () => {
+    const { computeRecordingFigures } = await import("@/lib/media/recording-figures");
+    // 360 slots at 30000/1001, 45 of them lost (a lower bound): the figures decide over facts
+    const states = new Uint8Array(360);
+    states.fill(2, 100, 145);
+    const figures = computeRecordingFigures({ frameRate: { num: 30000, den: 1001 }, states, rendition: "reencode", framesLostIsLowerBound: true });
+    const t = recordingTiming({ fpsOverride: null, durationSec: 10.5, facts: { fps: 30, frameCount: 315 }, figures }, 24)!;
+    expect(t.rate).toEqual({ num: 30000, den: 1001 });
+    expect(t.frameCount).toBe(360);
+    expect(t.durationSec).toBeCloseTo((360 * 1001) / 30000, 12);
+    expect(t.lost).toEqual({ frames: 45, isLowerBound: true });
+  });
+});

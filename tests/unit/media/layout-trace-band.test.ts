@@ -21,17 +21,17 @@ describe("layoutTraceBand", () => {
     ]);
   });
 
-  it("on the playable's clock, a lost interval keeps a visible minimum width at its point", () => {
+  it("on the playable's clock, a lost interval sits at its point (drawn with a minimum width in pixels)", () => {
     const s = layoutTraceBand(intervals, "playable", 87 / 30);
     const lost = s[1];
     expect(lost.leftPct).toBeCloseTo((40 / 87) * 100, 9);
-    expect(lost.widthPct).toBeGreaterThan(0);
+    expect(lost.widthPct).toBe(0);
     expect(s[3].leftPct + s[3].widthPct).toBeCloseTo(100, 9);
   });
 
   it("labels each interval with its state word, its span and its length", () => {
-    expect(describeInterval(intervals[1])).toBe("Lost: 00:00:01.333 to 00:00:01.433 (3 frames, 0.100 s)");
-    expect(describeInterval({ state: "intact", startFrame: 0, endFrame: 1, startSec: 0, endSec: 1 / 30 })).toMatch(/^Intact: .* \(1 frame, 0\.033 s\)$/);
+    expect(describeInterval(intervals[1])).toBe("Video lost: 00:00:01.333 to 00:00:01.433 (3 frames, 0.100 s)");
+    expect(describeInterval({ state: "intact", startFrame: 0, endFrame: 1, startSec: 0, endSec: 1 / 30 })).toMatch(/^Picture clear: .* \(1 frame, 0\.033 s\)$/);
   });
 
   it("draws nothing for an empty recording", () => {

@@ -51,7 +51,7 @@ describe("buildRangeChecksCsv", () => {
     expect(Number(col("Slant range (ft)")).toFixed(1)).toBe("1967.1");
     expect(col("Latitude (deg)")).toBe("54.4101235");
     expect(col("Longitude (deg)")).toBe("-2.6251235");
-    expect(col("Link event")).toBe('"First degradation"');
+    expect(col("Link event")).toBe('"Picture breaking up"');
     expect(col("Aircraft")).toBe('"Quad (demo airframe A)"'); // the flight's, when the check names none
     expect(col("Notes")).toBe('"Break-up behind the tower, ""as usual"""');
     expect(col("Recorded at (UTC)")).toBe('"2026-03-14T10:15:00.000Z"');

@@ -32,7 +32,7 @@ describe("rangeCheckCreateInput", () => {
 
   const bad: [string, Record<string, unknown>, string, RegExp][] = [
     ["flight id", { flightId: "nope" }, "flightId", /Choose one/],
-    ["event", { event: "fade" }, "event", /first degradation, total loss or reacquired/],
+    ["event", { event: "fade" }, "event", /picture breaking up, video lost or video back/],
     ["position mode", { positionBy: "guess" }, "positionBy", /coordinates, or ground distance/],
     ["units", { units: "yd" }, "units", /ft or m/],
     ["height missing", { heightAgl: "" }, "heightAgl", /Give the height/],
