@@ -12,6 +12,7 @@ import { runWithTimeout } from "./run-with-timeout";
 import { reconcileRecordings } from "./reconcile-recordings";
 import { finalFailureReason, markRecordingFailed, markRecordingRetrying } from "./mark-recording-failed";
 import { workerTimings, type WorkerTimings } from "./worker-options";
+import { checkpointSettings } from "@/lib/custody/checkpoint-settings";
 
 const PURGE_EVERY_MS = 60 * 60_000; // hourly
 const FORCED_STOP_WAIT_MS = 5_000; // 5 s for cancelled jobs to hand themselves back
@@ -118,6 +119,16 @@ export async function startWorker(options: StartOptions = {}): Promise<RunningWo
       "purge-uploads",
       { every: PURGE_EVERY_MS },
       { name: "purge-uploads", data: {}, opts: { attempts: s.attempts, removeOnComplete: { count: 24 }, removeOnFail: { count: 100 } } },
+    );
+  }
+
+  if (names.includes("custody-checkpoints")) {
+    // signed, time-stamped checkpoints of every organisation's custody chain (lib/custody/make-checkpoint.ts)
+    const s = JOB_SETTINGS["custody-checkpoints"];
+    await queue("custody-checkpoints").upsertJobScheduler(
+      "custody-checkpoints",
+      { every: checkpointSettings().everyMs },
+      { name: "custody-checkpoints", data: {}, opts: { attempts: s.attempts, backoff: { type: "exponential", delay: s.backoffMs }, removeOnComplete: { count: 24 }, removeOnFail: { count: 100 } } },
     );
   }
 

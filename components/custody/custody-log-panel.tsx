@@ -31,9 +31,11 @@ type EventRow = {
   outputSha256: string | null;
   hash: string;
 };
+type Anchor = { checkpoints: number; number: number; headSeq: number; signedAt: string; stampedAt: string | null; keyId: string; unanchored: number } | null;
+type CheckpointRef = { number: number; headSeq: number; signedAt: string; stampedAt: string | null };
 type Verification =
-  | { ok: true; count: number; headHash: string; headSeq: number; verifiedAt: string }
-  | { ok: false; count: number; reason: string; explanation: string; brokenAt: { seq: number; id: string; eventType: string; evidenceType: string; evidenceId: string | null; occurredAt: string }; verifiedAt: string };
+  | { ok: true; count: number; headHash: string; headSeq: number; verifiedAt: string; anchor: Anchor }
+  | { ok: false; count: number; reason: string; explanation: string; brokenAt: { seq: number; id: string; eventType: string; evidenceType: string; evidenceId: string | null; occurredAt: string } | null; checkpoint?: CheckpointRef; verifiedAt: string };
 
 const PAGE_SIZE = 100;
 const when = (iso: string) => iso.replace("T", " ").replace("Z", " UTC");
@@ -54,7 +56,7 @@ export function CustodyLogPanel({ recordingId, jobId }: { recordingId?: string; 
   });
   const verify = useMutation({ mutationFn: () => fetchJson<Verification>("/api/custody/verify", { method: "POST" }) });
   const result = verify.data;
-  const brokenId = result && !result.ok ? result.brokenAt.id : null;
+  const brokenId = result && !result.ok ? (result.brokenAt?.id ?? null) : null;
   const pages = Math.max(1, Math.ceil((list.data?.total ?? 0) / PAGE_SIZE));
 
   return (
@@ -85,9 +87,23 @@ export function CustodyLogPanel({ recordingId, jobId }: { recordingId?: string; 
           <p className="mt-1 text-xs text-ink-2">
             Head event #{result.headSeq}, hash <HashText value={result.headHash} label="Head hash" /> · verified {when(result.verifiedAt)}
           </p>
+          <p className="mt-1" data-testid="chain-anchor">
+            {result.anchor
+              ? `Complete up to checkpoint ${result.anchor.number} (event #${result.anchor.headSeq}), signed ${when(result.anchor.signedAt)}${result.anchor.stampedAt ? `, time-stamped ${when(result.anchor.stampedAt)}` : ", not time-stamped"}; ${result.anchor.unanchored === 0 ? "every event is anchored" : `${result.anchor.unanchored.toLocaleString("en-US")} event${result.anchor.unanchored === 1 ? " after it is" : "s after it are"} not yet anchored`}.`
+              : "No checkpoint yet: the order of events is proven, that none was removed from the end is not yet."}
+          </p>
         </div>
       )}
-      {result && !result.ok && (
+      {result && !result.ok && result.checkpoint && (
+        <div role="alert" data-testid="chain-broken" className="rounded-md border-2 border-bad bg-bad-soft px-3 py-2 text-sm">
+          <p className="font-medium">
+            <span aria-hidden>✕ </span>Not complete: checkpoint {result.checkpoint.number} (event #{result.checkpoint.headSeq}, signed {when(result.checkpoint.signedAt)}) does not hold.
+          </p>
+          <p className="mt-1">{result.explanation}.</p>
+          {result.brokenAt && <p className="mt-1 font-mono text-xs">event #{result.brokenAt.seq}, id {result.brokenAt.id}</p>}
+        </div>
+      )}
+      {result && !result.ok && !result.checkpoint && result.brokenAt && (
         <div role="alert" data-testid="chain-broken" className="rounded-md border-2 border-bad bg-bad-soft px-3 py-2 text-sm">
           <p className="font-medium">
             <span aria-hidden>✕ </span>Chain broken at event #{result.brokenAt.seq}: {custodyEventLabel(result.brokenAt.eventType)} ({result.brokenAt.evidenceType}) of {when(result.brokenAt.occurredAt)}.

@@ -8,6 +8,7 @@ import { processRecordingJob } from "./process-recording";
 import { extractStill } from "./extract-still";
 import { buildReport } from "./build-report";
 import { purgeUploadsJob } from "./purge-uploads";
+import { custodyCheckpointsJob } from "./custody-checkpoints";
 
 export type JobHandler<N extends JobName> = (job: Job<JobPayloads[N]>, signal: AbortSignal) => Promise<void>;
 export type JobHandlers = { [N in JobName]: JobHandler<N> };
@@ -23,4 +24,5 @@ export const handlers: JobHandlers = {
     await buildReport(job.data, { signal, progress: progressOf(job) });
   },
   "purge-uploads": purgeUploadsJob,
+  "custody-checkpoints": custodyCheckpointsJob,
 };
