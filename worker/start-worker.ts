@@ -9,7 +9,7 @@ import { newRedis } from "@/lib/queue/redis";
 import { JOB_SETTINGS, closeQueues, queue, type JobName } from "@/lib/queue/jobs";
 import { handlers } from "./handlers";
 import { runWithTimeout } from "./run-with-timeout";
-import { reconcileRecordings } from "./reconcile-recordings";
+import { reconcileJobs } from "./reconcile-jobs";
 import { finalFailureReason, markRecordingFailed, markRecordingRetrying } from "./mark-recording-failed";
 import { workerTimings, type WorkerTimings } from "./worker-options";
 import { checkpointSettings } from "@/lib/custody/checkpoint-settings";
@@ -100,12 +100,14 @@ export async function startWorker(options: StartOptions = {}): Promise<RunningWo
   }
 
   const reconcile = async () => {
-    const result = await reconcileRecordings();
-    if (result.requeued.length) log(`reconciler: queued ${result.requeued.length} recording(s) again that Redis had lost`);
-    return result;
+    const { checked, requeued } = await reconcileJobs({ only: names });
+    if (requeued.recordings.length) log(`reconciler: queued ${requeued.recordings.length} recording(s) again that Redis had lost`);
+    if (requeued.stills.length) log(`reconciler: queued ${requeued.stills.length} still(s) again that Redis had lost`);
+    if (requeued.reports.length) log(`reconciler: queued ${requeued.reports.length} report build(s) again that Redis had lost`);
+    return { checked, requeued: [...requeued.recordings, ...requeued.stills, ...requeued.reports] };
   };
   let reconcileTimer: NodeJS.Timeout | undefined;
-  if (names.includes("process-recording")) {
+  if (names.includes("process-recording") || names.includes("extract-still") || names.includes("build-report")) {
     await reconcile().catch((err) => console.error(`[worker] reconciler: ${(err as Error).message}`));
     reconcileTimer = setInterval(() => {
       reconcile().catch((err) => console.error(`[worker] reconciler: ${(err as Error).message}`));

@@ -6,7 +6,7 @@ import { mkdtemp, rm } from "node:fs/promises";
 import os from "node:os";
 import path from "node:path";
 import { createReadStream } from "node:fs";
-import { and, eq } from "drizzle-orm";
+import { and, eq, ne } from "drizzle-orm";
 import { db } from "@/db/client";
 import { renditions, stills } from "@/db/schema";
 import { loadReviewRecording } from "@/lib/findings/load-review-recording";
@@ -47,11 +47,16 @@ export async function extractStill(data: JobPayloads["extract-still"], ctx: Hand
     const key = stillKey(still.organisationId, still.recordingId, still.id);
     await placeStoredFile(out, key);
 
-    await db().transaction(async (tx) => {
-      await tx
+    const made = await db().transaction(async (tx) => {
+      // Only one run makes the still: a second run of the same job (queued again by the reconciler
+      // while the first was still going) waits on the row lock here, then finds it ready and records
+      // nothing, so the still has exactly one custody event.
+      const [won] = await tx
         .update(stills)
         .set({ state: "ready", storageKey: key, width: frame.width, height: frame.height, sha256: digest.hex, failureReason: null, updatedAt: new Date() })
-        .where(eq(stills.id, still.id));
+        .where(and(eq(stills.id, still.id), ne(stills.state, "ready")))
+        .returning({ id: stills.id });
+      if (!won) return false;
       await recordCustodyEvent(
         {
           organisationId: still.organisationId,
@@ -70,9 +75,10 @@ export async function extractStill(data: JobPayloads["extract-still"], ctx: Hand
         },
         tx,
       );
+      return true;
     });
     await ctx.progress?.(100);
-    return "made";
+    return made ? "made" : "already-made";
   } catch (err) {
     await markFailed(still.id, (err as Error).message.split("\n")[0].slice(0, 300)).catch(() => {});
     throw err;
@@ -82,5 +88,9 @@ export async function extractStill(data: JobPayloads["extract-still"], ctx: Hand
 }
 
 async function markFailed(stillId: string, reason: string) {
-  await db().update(stills).set({ state: "failed", failureReason: reason, updatedAt: new Date() }).where(eq(stills.id, stillId));
+  // never over a still that another run of the same job has made meanwhile
+  await db()
+    .update(stills)
+    .set({ state: "failed", failureReason: reason, updatedAt: new Date() })
+    .where(and(eq(stills.id, stillId), ne(stills.state, "ready")));
 }
