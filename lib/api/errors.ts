@@ -1,5 +1,6 @@
 // One error class, one code-to-status table, one JSON body shape for every API answer that fails.
 import { ZodError } from "zod";
+import { describeErrorForLog } from "./describe-error-for-log";
 
 export const ERROR_STATUS = {
   bad_request: 400,
@@ -57,6 +58,7 @@ export function errorBody(err: unknown): { status: number; body: ErrorBody } {
 
 export function errorResponse(err: unknown): Response {
   const { status, body } = errorBody(err);
-  if (status >= 500) console.error("[cairn] unexpected error:", err);
+  // never the error object itself: a failed query's bound parameters ride on it
+  if (status >= 500) console.error(`[cairn] unexpected error: ${describeErrorForLog(err)}`);
   return Response.json(body, { status, headers: { "Cache-Control": "no-store" } });
 }

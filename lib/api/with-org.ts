@@ -7,6 +7,7 @@ import { readSession } from "@/lib/auth/read-session";
 import { loadMember, type Member } from "@/lib/auth/load-member";
 import { can, type Permission } from "@/lib/auth/permissions";
 import { refuseCrossSite } from "./refuse-cross-site";
+import { plainText, safeText } from "@/lib/validation/common";
 
 export type OrgContext<P> = { req: Request; params: P; member: Member };
 type RouteArg = { params: Promise<Record<string, string | string[]>> };
@@ -57,10 +58,10 @@ export function idParam(value: string | string[] | undefined, what = "Not found"
 
 /** Reads list query parameters (search, sort, page) with bounds. */
 export const listQuery = z.object({
-  q: z.string().max(200).refine((s) => !s.includes("\u0000"), "Search text cannot contain NUL").optional(),
+  q: plainText(200).optional(),
   page: z.coerce.number().int().min(1).max(100000).default(1),
   pageSize: z.coerce.number().int().min(1).max(200).default(25),
-  sort: z.string().max(40).optional(),
+  sort: safeText().max(40).optional(),
   dir: z.enum(["asc", "desc"]).default("asc"),
   archived: z.enum(["0", "1"]).default("0"),
 });

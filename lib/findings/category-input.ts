@@ -1,10 +1,11 @@
 // A finding category as an organisation edits it.
 import { z } from "zod";
 import { ASSET_KINDS } from "@/lib/validation/work";
+import { name } from "@/lib/validation/common";
 
 export const categoryInput = z
   .object({
-    name: z.string().trim().min(1, "Required").max(80, "At most 80 characters"),
+    name: name(80),
     // null: offered for every kind of asset
     assetKind: z.enum(ASSET_KINDS).nullable().optional(),
   })

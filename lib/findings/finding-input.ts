@@ -4,6 +4,7 @@
 // resolveFindingSpan.
 import { z } from "zod";
 import { SEVERITIES } from "./severity-scale";
+import { textRule } from "@/lib/validation/common";
 
 export const NOTE_MAX = 4000;
 
@@ -26,7 +27,7 @@ export const frameBox = z
 const fields = {
   severity: z.enum(SEVERITIES, { message: `Choose one of: ${SEVERITIES.join(", ")}` }),
   categoryId: z.string().uuid("Choose a category from the list").nullable().optional(),
-  note: z.string().max(NOTE_MAX, `At most ${NOTE_MAX} characters`).optional(),
+  note: z.string().superRefine(textRule(true)).max(NOTE_MAX, `At most ${NOTE_MAX} characters`).optional(),
   box: frameBox.nullable().optional(),
   latitude: optionalCoordinate(-90, 90, "Latitude"),
   longitude: optionalCoordinate(-180, 180, "Longitude"),

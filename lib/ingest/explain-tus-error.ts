@@ -4,6 +4,7 @@ import { ERRORS } from "@tus/server";
 import { type ErrorCode, ERROR_STATUS } from "@/lib/api/errors";
 import { formatBytes } from "./format-bytes";
 import { UploadRefusal } from "./upload-refusal";
+import { describeErrorForLog } from "@/lib/api/describe-error-for-log";
 
 type TusError = { status_code: number; body: string };
 
@@ -43,6 +44,6 @@ export function explainTusError(err: Error | TusError, maxBytes: number): TusErr
     return { status_code: e.status_code, body: JSON.stringify({ error: { code: "bad_request", message: e.body.trim() } }) };
   }
   if (e.body === ERRORS.FILE_WRITE_ERROR.body || e.body === ERRORS.ERR_LOCK_TIMEOUT.body) console.warn("[uploads]", e.body.trim());
-  else console.error("[uploads] unexpected error:", err);
+  else console.error(`[uploads] unexpected error: ${describeErrorForLog(err)}`);
   return json("internal", "Something went wrong on our side; retrying continues the upload from the bytes already received", 500);
 }

@@ -14,6 +14,7 @@ import { UploadRefusal } from "./upload-refusal";
 import { uploadService } from "./upload-server";
 import { ApiError } from "@/lib/api/errors";
 import { assertSameOrigin, isStateChanging } from "@/lib/api/refuse-cross-site";
+import { describeErrorForLog } from "@/lib/api/describe-error-for-log";
 
 function sameOriginOrRefuse(req: Request): void {
   try {
@@ -103,7 +104,7 @@ export async function handleUploadRequest(req: Request): Promise<Response> {
     return await asJsonError(await uploadService().server.handleWeb(req));
   } catch (err) {
     if (err instanceof UploadRefusal) return refusalResponse(err, tus);
-    console.error("[uploads] unexpected error:", err);
+    console.error(`[uploads] unexpected error: ${describeErrorForLog(err)}`);
     return answer(500, { error: { code: "internal", message: "Something went wrong on our side; retrying continues the upload from the bytes already received" } }, tus);
   }
 }

@@ -6,6 +6,7 @@ import { z } from "zod";
 import { db } from "@/db/client";
 import { flights, jobs, recordingTags, recordings, tags, users } from "@/db/schema";
 import { listQuery } from "@/lib/api/with-org";
+import { safeText } from "@/lib/validation/common";
 import { pageOf, totalCount } from "@/lib/api/list";
 
 export const RECORDING_STATES = ["waiting", "processing", "ready", "failed"] as const;
@@ -16,7 +17,7 @@ export const recordingListQuery = listQuery.extend({
   jobId: z.string().uuid("Not a job id").optional(),
   state: z.enum(RECORDING_STATES).optional(),
   kind: z.enum(RECORDING_KINDS).optional(),
-  tag: z.string().trim().min(1).max(40).optional(),
+  tag: safeText().min(1).max(40).optional(),
   sort: z.enum(["sequence", "name", "size", "kind", "duration", "state", "recordedAt", "uploadedAt"]).optional(),
 });
 export type RecordingListQuery = z.infer<typeof recordingListQuery>;

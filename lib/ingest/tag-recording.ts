@@ -5,6 +5,7 @@ import { z } from "zod";
 import { db } from "@/db/client";
 import { recordingTags, recordings, tags } from "@/db/schema";
 import { notFound } from "@/lib/api/errors";
+import { textRule } from "@/lib/validation/common";
 
 export const tagName = z
   .string()
@@ -14,7 +15,7 @@ export const tagName = z
       .string()
       .min(1, "Required")
       .max(40, "At most 40 characters")
-      .refine((s) => !/[\u0000-\u001f\u007f-\u009f]/.test(s), "No control characters"),
+      .superRefine(textRule()),
   );
 export const tagInput = z.object({ name: tagName }).strict();
 

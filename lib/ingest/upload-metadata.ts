@@ -3,6 +3,7 @@
 // organisation). Server fields are written only by the server: the client's copy of them is dropped.
 import { z } from "zod";
 import { fileNameProblem, normaliseRelativePath } from "./check-file-name";
+import { textRule } from "@/lib/validation/common";
 
 /** Metadata keys the uploader sends. */
 export const CLIENT_METADATA_KEYS = ["jobId", "flightId", "filename", "filetype", "relativePath", "lastModified"] as const;
@@ -50,7 +51,7 @@ export const clientUploadMetadata = z.object({
   jobId: z.string({ message: "Required" }).uuid("Choose a job"),
   flightId: z.string({ message: "Required" }).uuid("Choose a flight"),
   filename: fileName,
-  filetype: z.preprocess((v) => (absent(v) ? undefined : v), z.string().max(200, "At most 200 characters").optional()),
+  filetype: z.preprocess((v) => (absent(v) ? undefined : v), z.string().superRefine(textRule()).max(200, "At most 200 characters").optional()),
   relativePath,
   lastModified,
 });

@@ -1,6 +1,7 @@
 // What an owner fills in to share: scope and its target, expiry, optional passcode, download rights,
 // label and recipients. The scope decides which target field is required.
 import { z } from "zod";
+import { safeText, textRule } from "@/lib/validation/common";
 
 export const SHARE_SCOPES = ["recording", "findings", "report", "job"] as const;
 export type ShareScope = (typeof SHARE_SCOPES)[number];
@@ -23,11 +24,12 @@ export const shareLinkInput = z
     recordingId: uuid.nullish(),
     findingIds: z.array(uuid).max(200).nullish(),
     reportId: uuid.nullish(),
-    label: z.string().trim().min(1, "Give the link a label you will recognise").max(120),
+    label: safeText().min(1, "Give the link a label you will recognise").max(120),
     recipientEmails: z.array(z.string().trim().toLowerCase().email("Not an e-mail address").max(320)).max(20).default([]),
     expiresInDays: z.coerce.number().int().min(1).max(MAX_SHARE_DAYS).default(14),
     passcode: z
       .string()
+      .superRefine(textRule())
       .max(64)
       .transform((s) => s.trim())
       .refine((s) => s === "" || s.length >= 6, "A passcode needs at least 6 characters")

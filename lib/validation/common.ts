@@ -1,13 +1,45 @@
 // Building blocks shared by the client forms and the route handlers (the same schema validates both).
 import { z } from "zod";
 
-// PostgreSQL text cannot hold the NUL character: refuse it here (422) rather than fail in the database (500).
-const NO_NUL = [(s: string) => !s.includes("\u0000"), "Contains a NUL character"] as const;
-export const plainText = (max: number) => z.string().trim().max(max, `At most ${max} characters`).refine(...NO_NUL);
+// The one rule for text that crosses a boundary (API bodies, query strings, upload metadata), so a
+// bad character is a 422 naming the field instead of a database error:
+//   - NUL: PostgreSQL text cannot hold it;
+//   - an unpaired UTF-16 surrogate (\ud800 alone): not a Unicode scalar value, so it has no UTF-8
+//     form (RFC 3629 section 3) and the database refuses the bytes;
+//   - other C0 controls, DEL and C1 controls: invisible, and they break logs, CSV and e-mail headers.
+// Tab, line feed and carriage return are allowed in multi-line fields (notes, scope, reasons) only.
+// In a `u` regex a surrogate range matches only surrogates that are not part of a pair.
+const SINGLE_LINE_BAD = /[\u0000-\u001f\u007f-\u009f]|[\ud800-\udfff]/u;
+const MULTI_LINE_BAD = /[\u0000-\u0008\u000b\u000c\u000e-\u001f\u007f-\u009f]|[\ud800-\udfff]/u;
 
-export const name = (max = 120) => z.string().trim().min(1, "Required").max(max, `At most ${max} characters`).refine(...NO_NUL);
-export const optionalText = (max = 2000) =>
-  plainText(max)
+/** Why a text cannot be accepted, or null when it can. */
+export function textProblem(s: string, multiline = false): string | null {
+  const m = (multiline ? MULTI_LINE_BAD : SINGLE_LINE_BAD).exec(s);
+  if (!m) return null;
+  const code = m[0].codePointAt(0)!;
+  const hex = `U+${code.toString(16).toUpperCase().padStart(4, "0")}`;
+  if (code === 0) return "Contains a NUL character (U+0000)";
+  if (code >= 0xd800 && code <= 0xdfff) return `Contains a broken character (unpaired surrogate ${hex})`;
+  if (!multiline && (code === 0x09 || code === 0x0a || code === 0x0d)) return "Must be a single line (no tabs or line breaks)";
+  return `Contains a control character (${hex})`;
+}
+
+/** A zod check applying textProblem: `z.string().superRefine(textRule())`. */
+export const textRule =
+  (multiline = false) =>
+  (s: string, ctx: z.RefinementCtx) => {
+    const problem = textProblem(s, multiline);
+    if (problem) ctx.addIssue({ code: "custom", message: problem });
+  };
+
+/** Any text field: the text rule, then trimmed; `multiline` lets tabs and line breaks through. */
+export const safeText = (multiline = false) => z.string().superRefine(textRule(multiline)).trim();
+
+export const plainText = (max: number, multiline = false) => safeText(multiline).max(max, `At most ${max} characters`);
+
+export const name = (max = 120) => safeText().min(1, "Required").max(max, `At most ${max} characters`);
+export const optionalText = (max = 2000, multiline = false) =>
+  plainText(max, multiline)
     .optional()
     .nullable()
     .transform((v) => (v ? v : null));

@@ -5,7 +5,7 @@ import { z } from "zod";
 import { GeoInputError, fromMetres, parseAngle, toMetres, type Axis } from "@/lib/geo";
 import { LINK_EVENTS, type LinkEvent } from "@/lib/range/link-events";
 import type { PositionInput } from "@/lib/range/compute-range-check";
-import { optionalText, optionalUuid, uuid } from "./common";
+import { optionalText, optionalUuid, textRule, uuid } from "./common";
 
 export const LENGTH_UNITS = ["ft", "m"] as const;
 export type DisplayUnits = (typeof LENGTH_UNITS)[number];
@@ -26,7 +26,7 @@ const typedNumber = (what: string) =>
 /** Coordinates stay text until the whole body is known: DMS and hemisphere letters are read by lib/geo. */
 const angleText = z.preprocess(
   (v) => (v === undefined || v === null ? null : typeof v === "number" ? String(v) : v),
-  z.string({ message: "Write the coordinate as text or a number, e.g. 54.41 or 54°24'36\"N" }).trim().max(60, "At most 60 characters").nullable(),
+  z.string({ message: "Write the coordinate as text or a number, e.g. 54.41 or 54°24'36\"N" }).superRefine(textRule()).trim().max(60, "At most 60 characters").nullable(),
 );
 
 const orientation = optionalText(80);
@@ -47,7 +47,7 @@ export const rangeCheckFields = {
   cameraOrientation: orientation,
   aircraft: optionalText(120),
   firmware: optionalText(80),
-  notes: optionalText(2000),
+  notes: optionalText(2000, true),
 };
 
 type RawFields = {

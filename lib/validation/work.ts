@@ -73,7 +73,7 @@ export const clientInput = z.object({
   name: name(),
   contactName: optionalText(120),
   contactEmail: optionalEmail,
-  notes: optionalText(),
+  notes: optionalText(2000, true),
 });
 
 const siteFields = {
@@ -84,7 +84,7 @@ const siteFields = {
   longitude,
   timeZone,
   assetKind: z.enum(ASSET_KINDS),
-  launchNotes: optionalText(),
+  launchNotes: optionalText(2000, true),
 };
 export const siteInput = z
   .object({ ...siteFields, timeZone: timeZone.default("UTC"), assetKind: siteFields.assetKind.default("other") })
@@ -94,7 +94,7 @@ export const sitePatch = z.object(siteFields).partial().extend({ archived }).str
 const jobFields = {
   siteId: uuid,
   title: name(160),
-  scope: optionalText(4000),
+  scope: optionalText(4000, true),
   dueDate: optionalIsoDate,
   status: z.enum(JOB_STATUSES),
   pilotId: optionalUuid,
@@ -110,10 +110,10 @@ export const flightFields = {
   aircraft: optionalText(120),
   launchLatitude: latitude,
   launchLongitude: longitude,
-  launchNotes: optionalText(),
+  launchNotes: optionalText(2000, true),
   // metres above ground level; the form converts from the user's units
   maxAltitudeAglM: optionalNumber(0, MAX_ALTITUDE_AGL_M, "Max altitude"),
-  notes: optionalText(),
+  notes: optionalText(2000, true),
 };
 export const FLIGHT_LAUNCH_PAIR: [string, string] = ["launchLatitude", "launchLongitude"];
 export const flightInput = z.object(flightFields).superRefine(pairRule(FLIGHT_LAUNCH_PAIR));

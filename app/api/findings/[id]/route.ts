@@ -1,5 +1,6 @@
 // GET/PATCH/DELETE /api/findings/:id: read, edit (kept as a new version) or delete (recorded, not erased) a finding
 import { z } from "zod";
+import { plainText } from "@/lib/validation/common";
 import { withOrg, readJson, idParam, ok } from "@/lib/api/with-org";
 import { notFound } from "@/lib/api/errors";
 import { requestFacts } from "@/lib/custody/record-custody-event";
@@ -9,7 +10,7 @@ import { deleteFinding } from "@/lib/findings/delete-finding";
 import { loadFindingView } from "@/lib/findings/finding-view";
 
 type P = { id: string };
-const deleteInput = z.object({ reason: z.string().trim().max(500).optional() }).strict();
+const deleteInput = z.object({ reason: plainText(500, true).optional() }).strict();
 
 export const GET = withOrg<P>({ permission: "findings.read" }, async ({ params, member }) => {
   const view = await loadFindingView(member.organisationId, idParam(params.id, "Finding not found"));

@@ -1,11 +1,12 @@
 // GET /api/jobs/:id/hold: whether the job is under legal hold; PUT: set (with a reason) or release it
 import { z } from "zod";
+import { plainText } from "@/lib/validation/common";
 import { withOrg, readJson, idParam, ok } from "@/lib/api/with-org";
 import { requestFacts } from "@/lib/custody/record-custody-event";
 import { getLegalHold, setLegalHold } from "@/lib/custody/set-legal-hold";
 
 type P = { id: string };
-const input = z.object({ hold: z.boolean(), reason: z.string().trim().max(500).nullish() }).strict();
+const input = z.object({ hold: z.boolean(), reason: plainText(500, true).nullish() }).strict();
 
 export const GET = withOrg<P>({ permission: "workspace.read" }, async ({ params, member }) =>
   ok(await getLegalHold(member.organisationId, idParam(params.id, "Job not found"))),

@@ -2,12 +2,13 @@
 // hold). Any member who can see the recording may ask, so a refused attempt is recorded in the
 // custody log before it is refused.
 import { z } from "zod";
+import { plainText } from "@/lib/validation/common";
 import { withOrg, readJson, idParam, ok } from "@/lib/api/with-org";
 import { requestFacts } from "@/lib/custody/record-custody-event";
 import { deleteRecording } from "@/lib/custody/delete-recording";
 
 type P = { id: string };
-const input = z.object({ reason: z.string().trim().max(500).nullish() }).strict();
+const input = z.object({ reason: plainText(500, true).nullish() }).strict();
 
 export const POST = withOrg<P>({ permission: "recordings.read" }, async ({ req, params, member }) =>
   ok(await deleteRecording(member, idParam(params.id, "Recording not found"), await readJson(req, input), requestFacts(req))),
