@@ -127,7 +127,7 @@ describe("routes outside withOrg", () => {
     };
     const staged = async () => (await readdir(env().uploadDir).catch(() => [] as string[])).length;
     const before = await staged();
-    for (const extra of [{ origin: FOREIGN }, { "sec-fetch-site": "cross-site" }]) {
+    for (const extra of [{ origin: FOREIGN }, { "sec-fetch-site": "cross-site" }] as Record<string, string>[]) {
       const res = await handleUploadRequest(new Request("http://localhost/api/uploads", { method: "POST", headers: { ...headers, ...extra } }));
       await expectRefused(res, 403, "forbidden");
     }
@@ -188,7 +188,7 @@ describe("every state-changing route found under app/api", () => {
       for (const method of ["POST", "PUT", "PATCH", "DELETE"]) {
         const handler = mod[method] as ((r: Request, c: unknown) => Promise<Response>) | undefined;
         if (!handler) continue;
-        for (const headers of [{ origin: FOREIGN }, { origin: "", "sec-fetch-site": "cross-site" }]) {
+        for (const headers of [{ origin: FOREIGN }, { origin: "", "sec-fetch-site": "cross-site" }] as Record<string, string>[]) {
           const res = await handler(await req(actors.owner, method, urlPath, {}, headers), route(params));
           expect(res.status, `${method} ${urlPath} ${JSON.stringify(headers)}`).toBe(403);
           expect((await res.json()).error.code).toBe("forbidden");
