@@ -10,6 +10,7 @@ import { Button } from "@/components/ui/button";
 import { TraceSummaryLine } from "@/components/trace/trace-summary";
 import type { FlightTimeline, TimelineGap, TimelineSegment } from "@/lib/flight-timeline/build-flight-timeline";
 import { layoutFlightTimeline } from "./layout-flight-timeline";
+import { formatClockTime } from "@/lib/timecode/format-clock-time";
 
 // the API's answer: the server's timeline (no dates in it) and the flight it belongs to
 type Segment = TimelineSegment;
@@ -84,7 +85,7 @@ export function FlightTimeline({ flightId, currentRecordingId, canReorder = fals
               key={s.recordingId}
               href={`/recordings/${s.recordingId}`}
               tabIndex={-1}
-              title={`${i + 1}. ${s.originalName}: ${STATE_WORDS[s.state]}${s.lengthSec ? `, ${s.lengthSec.toFixed(1)} s` : ""}${s.trace ? `, ${(s.trace.intactShare * 100).toFixed(1)} % intact` : ""}`}
+              title={`${i + 1}. ${s.originalName}: ${STATE_WORDS[s.state]}${s.lengthSec ? `, ${formatClockTime(s.lengthSec)}` : ""}${s.trace ? `, ${(s.trace.intactShare * 100).toFixed(1)} % intact` : ""}`}
               className={`flex items-end overflow-hidden rounded-sm border ${s.recordingId === currentRecordingId ? "border-lake ring-2 ring-lake" : "border-line"} ${segmentPattern(s)}`}
               style={{ width: `${widths[2 * i]}%` }}
             >
@@ -102,7 +103,7 @@ export function FlightTimeline({ flightId, currentRecordingId, canReorder = fals
         longestLossSec={t.summary.longestLossSec}
       />
       <p className="text-xs text-ink-2">
-        {t.summary.files} file{t.summary.files === 1 ? "" : "s"}, {t.summary.recordedSec.toFixed(1)} s recorded
+        {t.summary.files} file{t.summary.files === 1 ? "" : "s"}, {formatClockTime(t.summary.recordedSec)} recorded
         {t.summary.spanSec !== null ? `, ${t.summary.spanSec.toFixed(1)} s from first to last frame` : ""}
         {t.summary.longestGapSec !== null ? `; longest gap between files ${t.summary.longestGapSec.toFixed(1)} s` : ""}
         {t.summary.unknownGaps > 0 ? `; ${t.summary.unknownGaps} gap${t.summary.unknownGaps === 1 ? "" : "s"} of unknown length` : ""}. Gaps are estimated from the recorder&apos;s file
@@ -123,7 +124,7 @@ export function FlightTimeline({ flightId, currentRecordingId, canReorder = fals
                 </Link>
                 <span className="text-xs text-ink-2">
                   {STATE_WORDS[s.state]}
-                  {s.lengthSec ? `, ${s.lengthSec.toFixed(1)} s` : ""}
+                  {s.lengthSec ? `, ${formatClockTime(s.lengthSec)}` : ""}
                   {s.trace ? `, ${(s.trace.intactShare * 100).toFixed(1)} % intact` : ""}
                 </span>
                 {canReorder && (

@@ -10,6 +10,7 @@ import { fetchJson } from "@/components/fetch-json";
 import { EmptyState } from "@/components/ui/empty-state";
 import { HashText } from "@/components/ui/hash-text";
 import { formatBytes } from "@/lib/ingest/format-bytes";
+import { formatClockTime } from "@/lib/timecode/format-clock-time";
 
 export type RecordingRow = {
   id: string;
@@ -301,7 +302,7 @@ export function RecordingsTable({
                     {jobId && !flightId && <td className="px-3 py-2 font-mono text-xs whitespace-nowrap">{r.flownOn}</td>}
                     <td className="px-3 py-2 whitespace-nowrap">{KIND_LABELS[r.kind]}</td>
                     <td className="px-3 py-2 text-right whitespace-nowrap">{formatBytes(r.sizeBytes)}</td>
-                    <td className="px-3 py-2 text-right font-mono whitespace-nowrap">{r.durationSec != null ? `${r.durationSec.toFixed(1)} s` : "—"}</td>
+                    <td className="px-3 py-2 text-right font-mono whitespace-nowrap">{r.durationSec != null ? formatClockTime(r.durationSec) : "—"}</td>
                     <td className="px-3 py-2">
                       <RecordingState row={r} />
                     </td>

@@ -11,6 +11,8 @@ import { formatBytes } from "@/lib/ingest/format-bytes";
 import { ASSET_KIND_LABELS, JOB_STATUS_MEANING } from "@/lib/validation/work";
 import { loadFindingViews } from "@/lib/findings/finding-view";
 import { frameRateFromFps, recordingTiming } from "@/lib/findings/recording-frame-rate";
+import { readRecordingFigures } from "@/lib/media/recording-figures";
+import { describeRecordingDuration, describeRecordingSignal } from "./describe-recording-signal";
 import { describeMoment } from "@/lib/findings/describe-moment";
 import { SEVERITIES_WORST_FIRST, SEVERITY_SCALE } from "@/lib/findings/severity-scale";
 import { storePath } from "@/lib/storage/local-store";
@@ -94,6 +96,7 @@ export async function loadReportData(organisationId: string, reportId: string): 
           sizeBytes: s.recordings.sizeBytes,
           durationSec: s.recordings.durationSec,
           facts: s.recordings.facts,
+          figures: s.recordings.figures,
           fpsOverride: s.recordings.fpsOverride,
           state: s.recordings.state,
           createdAt: s.recordings.createdAt,
@@ -108,7 +111,7 @@ export async function loadReportData(organisationId: string, reportId: string): 
 
       const findings: ReportFinding[] = views.map((f, i) => {
         const r = recById.get(f.recordingId);
-        const timing = r ? recordingTiming({ fpsOverride: r.fpsOverride, durationSec: r.durationSec, facts: r.facts }, head.defaultFps) : null;
+        const timing = r ? recordingTiming({ fpsOverride: r.fpsOverride, durationSec: r.durationSec, facts: r.facts, figures: r.figures }, head.defaultFps) : null;
         const rate = timing?.rate ?? frameRateFromFps(head.defaultFps);
         const level = SEVERITY_SCALE[f.severity];
         const dist = [
@@ -195,7 +198,8 @@ export async function loadReportData(organisationId: string, reportId: string): 
           name: r.name,
           sha256: r.sha256,
           size: `${formatBytes(r.sizeBytes)} (${r.sizeBytes.toLocaleString("en-GB")} bytes)`,
-          duration: r.durationSec ? `${r.durationSec.toFixed(3)} s` : null,
+          duration: describeRecordingDuration(readRecordingFigures(r), r.durationSec),
+          signal: describeRecordingSignal(readRecordingFigures(r)),
           flownOn: flightById.get(r.flightId)?.flownOn ?? "",
           uploadedAt: formatZoned(r.createdAt, tz),
         })),

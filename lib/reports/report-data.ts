@@ -39,7 +39,8 @@ export type ReportData = {
   site: { name: string; address: string | null; coordinates: string | null; assetKind: string };
   crew: { role: string; name: string }[];
   flights: { flownOn: string; pilot: string | null; aircraft: string | null; launch: string | null; maxAltitude: string | null; notes: string | null; recordings: number }[];
-  recordings: { name: string; sha256: string; size: string; duration: string | null; flownOn: string; uploadedAt: string }[];
+  /** duration "HH:MM:SS.mmm" on the recorder's clock; signal: the stored figures in one line, null without a trace */
+  recordings: { name: string; sha256: string; size: string; duration: string | null; signal: string | null; flownOn: string; uploadedAt: string }[];
   counts: { severity: Severity; label: string; nbiRating: number; nbiWord: string; count: number }[];
   findings: ReportFinding[];
   cautions: Caution[];

@@ -254,6 +254,7 @@ export function makeReportDocument(pdf: typeof ReactPdf): (props: ReportDocument
                   Flown {r.flownOn} · uploaded {r.uploadedAt} · {r.size}
                   {r.duration ? ` · ${r.duration}` : ""}
                 </Text>
+                {r.signal && <Text style={st.muted}>{r.signal}</Text>}
                 <Text style={st.hash}>SHA-256 {r.sha256}</Text>
               </View>
             ))}

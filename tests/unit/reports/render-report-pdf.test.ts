@@ -28,7 +28,7 @@ const data: ReportData = {
   site: { name: "Test Site", address: null, coordinates: "54.412370, -2.619420", assetKind: "Bridge" },
   crew: [{ role: "Reviewer", name: "Test Reviewer" }],
   flights: [],
-  recordings: [{ name: "A.264", sha256: sha("a"), size: "1.0 KiB (1,024 bytes)", duration: "2.000 s", flownOn: "2026-03-14", uploadedAt: "2026-03-14 10:00 (Europe/London)" }],
+  recordings: [{ name: "A.264", sha256: sha("a"), size: "1.0 KiB (1,024 bytes)", duration: "00:00:02.000", signal: "Signal: 60 frame slots, at least 3 lost, 91.7 % intact; first degradation at 00:00:01.000 (frame 30); longest loss 0.100 s", flownOn: "2026-03-14", uploadedAt: "2026-03-14 10:00 (Europe/London)" }],
   counts: (["critical", "severe", "major", "moderate", "minor", "note"] as const).map((s) => ({ severity: s, label: SEVERITY_SCALE[s].label, nbiRating: SEVERITY_SCALE[s].nbiRating, nbiWord: SEVERITY_SCALE[s].nbiWord, count: s === "severe" ? 1 : 0 })),
   findings: [
     {
@@ -71,6 +71,8 @@ describe("renderReportPdf", () => {
     // the digest on one line, unbroken
     expect(text.split("\n").some((line) => line.includes(sha("a")))).toBe(true);
     expect(text).toContain("Unit report");
+    // a lost count that is only a lower bound reads "at least" in the PDF too
+    expect(text.replace(/\s+/g, " ")).toContain("at least 3 lost");
     expect(text).toContain(CAUTIONS[1].summary);
     expect(text).toContain("report version 4"); // the footer on every page
     expect(text).toMatch(/Page 1 of \d/);
