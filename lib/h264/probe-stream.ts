@@ -348,6 +348,9 @@ class StreamAnalyzer {
       recoveryFrameCnt: cur.recoveryFrameCnt,
       damaged: cur.damaged,
       secondField,
+      idrPicId: h?.idrPicId ?? null,
+      pocLsb: h && sps?.picOrderCntType === 0 ? h.picOrderCntLsb : null,
+      maxPocLsb: sps?.picOrderCntType === 0 && sps.log2MaxPicOrderCntLsb !== null ? 1 << sps.log2MaxPicOrderCntLsb : null,
     });
   }
 

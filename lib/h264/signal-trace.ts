@@ -10,14 +10,17 @@
 // - Frames predicted from a lost or damaged reference are damaged until the next IDR picture, or until
 //   the picture a recovery point SEI names: a decoder cannot rebuild them exactly before that.
 //   Frames before the stream's first IDR (or recovery point) are damaged for the same reason.
-// - Losses are counted from frame_num, which only advances on reference pictures and wraps at
-//   MaxFrameNum: lost non-reference frames cannot be seen, a gap of MaxFrameNum or more reference
-//   frames is under-counted, and frames lost just before an IDR leave no trace (the IDR resets
-//   frame_num). Counts of lost frames are therefore lower bounds.
+// - Losses are counted from frame_num, read together with the stream's picture structure (its IDR
+//   period, picture order count and idr_pic_id; see infer-lost-frames.ts): frames lost at the end of a
+//   group of pictures and whole groups are counted too. Where the structure cannot tell (no regular
+//   IDR period, a wrap the period does not rule out, a lost IDR), the count is the smallest the
+//   stream allows and the trace says it is a lower bound (lostIsLowerBound).
 // - A frame_num equal to the previous reference picture's (outside a field pair) is ambiguous: a
 //   repeated picture or exactly MaxFrameNum - 1 lost frames. It is marked damaged, with no lost slots.
 // - When the SPS allows gaps in frame_num (gaps_in_frame_num_value_allowed_flag), gaps are the
 //   encoder's choice and are not counted as losses.
+
+import { inferPictureStructure, readGapWithPeriod, type GapReading, type PictureStructure } from "./infer-lost-frames";
 
 export const FrameState = { Intact: 0, Damaged: 1, Lost: 2 } as const;
 export type FrameStateValue = (typeof FrameState)[keyof typeof FrameState];
@@ -48,8 +51,12 @@ export interface SignalTrace {
   flags: Uint8Array;
   /** Byte offset of the slot's access unit in the file; NaN for lost slots. */
   offsets: Float64Array;
-  /** Number of distinct frame_num gaps. */
+  /** Number of distinct losses. */
   lossEvents: number;
+  /** The lost count is "at least": the stream's structure could not bound every loss. */
+  lostIsLowerBound: boolean;
+  /** What was inferred about the stream's picture structure (null for traces not built by the recorder). */
+  structure?: PictureStructure | null;
 }
 
 /** What the stream parser knows about one coded picture (one access unit). */
@@ -70,6 +77,12 @@ export interface TracePicture {
   damaged: boolean;
   /** Second field of a field pair: shares the first field's frame slot. */
   secondField: boolean;
+  /** idr_pic_id of an IDR picture (7.4.3), when read. */
+  idrPicId?: number | null;
+  /** pic_order_cnt_lsb (POC type 0 streams only), when read. */
+  pocLsb?: number | null;
+  /** MaxPicOrderCntLsb of the active SPS (POC type 0 only). */
+  maxPocLsb?: number | null;
 }
 
 export interface SignalTraceRecorderOptions {
@@ -89,12 +102,29 @@ export class SignalTraceRecorder {
   private recoveryAt = Number.POSITIVE_INFINITY;
   private readonly propagate: boolean;
   private held: TracePicture | null = null;
+  // Pictures are kept until finish(): the IDR period is known only once the whole stream is read.
+  private readonly pictures: TracePicture[] = [];
+  /** Pictures from each picture (itself included) to the next IDR or the end of the stream. */
+  private readonly picturesToIdr = new Map<TracePicture, number>();
+  private structure: PictureStructure | null = null;
+  private periodic: (PictureStructure & { idrPeriod: number }) | null = null;
+  private lowerBound = false;
+  /** Slot of the current group's IDR (or where it must have been), null before the first IDR. */
+  private groupStart: number | null = null;
+  private prevPoc: number | null = null;
+  private prevIdrPicId: number | null = null;
+  /** The last loss in the current group whose length frame_num left open (a wrap): slot after it. */
+  private openGap: { slotAfter: number; maxFrameNum: number } | null = null;
 
   constructor(options: SignalTraceRecorderOptions = {}) {
     this.propagate = options.propagateFromDamagedReferences ?? true;
   }
 
   addPicture(p: TracePicture): void {
+    this.pictures.push(p);
+  }
+
+  private feed(p: TracePicture): void {
     const held = this.held;
     if (held) {
       this.held = null;
@@ -114,6 +144,47 @@ export class SignalTraceRecorder {
     const prev = this.prevRefFrameNum;
     if (prev === null || p.frameNum === prev) return 0;
     return (p.frameNum - prev - 1 + p.maxFrameNum) % p.maxFrameNum;
+  }
+
+  /** The loss before `p` read with the stream's structure, when it has a period and the group's start is known. */
+  private readGap(p: TracePicture): GapReading | null {
+    const s = this.periodic;
+    if (!s || this.groupStart === null || this.prevRefFrameNum === null) return null;
+    if (p.secondField || p.isIdr || p.frameNum === null || p.gapsInFrameNumAllowed) return null;
+    const pos = this.length - 1 - this.groupStart;
+    return readGapWithPeriod(s, pos, this.prevRefFrameNum, this.prevPoc, p, this.picturesToIdr.get(p) ?? 1);
+  }
+
+  /** Frames lost at the end of the group before IDR `p`, and whole groups lost before it. */
+  private lostBeforeIdr(p: TracePicture): number {
+    const s = this.periodic;
+    let lost = 0;
+    if (s && this.groupStart !== null) {
+      const pos = this.length - 1 - this.groupStart;
+      if (pos < s.idrPeriod - 1) lost += s.idrPeriod - 1 - pos;
+      // The group's total loss is known now (period - frames present). When a gap in it could have
+      // been longer by whole MaxFrameNum cycles, the frames missing at the end belong there: one loss
+      // explains the stream, two would be needed otherwise.
+      const open = this.openGap;
+      if (open && lost >= open.maxFrameNum) {
+        const extra = Math.floor(lost / open.maxFrameNum) * open.maxFrameNum;
+        this.insertLost(open.slotAfter, extra);
+        lost -= extra;
+      }
+      const id = p.idrPicId ?? null;
+      if (id !== null && this.prevIdrPicId !== null) {
+        if (s.idrIdToggles) {
+          if (id === this.prevIdrPicId) {
+            lost += s.idrPeriod;
+            this.lowerBound = true;
+          }
+        } else {
+          const delta = (id - this.prevIdrPicId + 65536) % 65536;
+          if (delta > 1) lost += (delta - 1) * s.idrPeriod;
+        }
+      }
+    }
+    return lost;
   }
 
   /**
@@ -138,7 +209,23 @@ export class SignalTraceRecorder {
       return;
     }
     let damaged = p.damaged;
-    const lost = this.gapBefore(p);
+    if (p.isIdr && !p.secondField) {
+      const before = this.lostBeforeIdr(p);
+      if (before > 0) {
+        this.pushLost(before);
+        this.lossEvents++;
+      }
+    }
+    if (p.isIdr && !p.secondField) this.openGap = null;
+    const reading = this.readGap(p);
+    const lost = reading ? reading.lost : this.gapBefore(p);
+    // A gap in a group with a known period is settled at the group's IDR (see lostBeforeIdr).
+    if (lost > 0 && (!reading || (reading.lowerBound && reading.newGroupPosition !== null))) this.lowerBound = true;
+    if (lost > 0 && reading?.newGroupPosition !== null && reading?.newGroupPosition !== undefined && this.prevIdrPicId !== null && this.periodic) {
+      // An IDR was lost in this gap: the next one's idr_pic_id follows the lost one's.
+      this.prevIdrPicId = this.periodic.idrIdToggles ? 1 - this.prevIdrPicId : (this.prevIdrPicId + 1) % 65536;
+    }
+    if (lost > 0 && reading?.lowerBound && reading.newGroupPosition === null) this.openGap = { slotAfter: this.length + lost, maxFrameNum: p.maxFrameNum };
     if (lost > 0) {
       this.pushLost(lost);
       this.lossEvents++;
@@ -152,6 +239,13 @@ export class SignalTraceRecorder {
 
     const slot = this.reserve();
     this.offsets[slot] = p.offset;
+    if (p.isIdr) {
+      this.groupStart = slot;
+      if (p.idrPicId !== undefined && p.idrPicId !== null) this.prevIdrPicId = p.idrPicId;
+    } else if (reading?.newGroupPosition !== null && reading?.newGroupPosition !== undefined) {
+      this.groupStart = slot - reading.newGroupPosition;
+    }
+    this.prevPoc = p.pocLsb ?? null;
     let flags: number = FrameFlag.Present;
     if (p.isIdr) flags |= FrameFlag.Idr;
     if (p.isReference) flags |= FrameFlag.Reference;
@@ -189,16 +283,35 @@ export class SignalTraceRecorder {
   }
 
   finish(): SignalTrace {
+    this.openGap = null;
+    this.structure = inferPictureStructure(this.pictures);
+    const s = this.structure;
+    this.periodic = s.idrPeriod !== null && s.allReference ? { ...s, idrPeriod: s.idrPeriod } : null;
+    let toIdr = 0;
+    for (let i = this.pictures.length - 1; i >= 0; i--) {
+      const p = this.pictures[i];
+      if (p.isIdr) toIdr = 0;
+      else if (!p.secondField) toIdr++;
+      this.picturesToIdr.set(p, Math.max(1, toIdr));
+    }
+    for (const p of this.pictures) this.feed(p);
+    this.pictures.length = 0;
+    this.picturesToIdr.clear();
     if (this.held) {
       this.commit(this.held);
       this.held = null;
     }
+    // A gap left open in the last group: no IDR came to settle it.
+    if (this.openGap) this.lowerBound = true;
     return {
       length: this.length,
       states: this.states.slice(0, this.length),
       flags: this.flags.slice(0, this.length),
       offsets: this.offsets.slice(0, this.length),
       lossEvents: this.lossEvents,
+      // Without a period nothing bounds a loss (nor tells frames lost before an IDR).
+      lostIsLowerBound: this.lowerBound || (this.periodic === null && this.lossEvents > 0),
+      structure: this.structure,
     };
   }
 
@@ -223,6 +336,19 @@ export class SignalTraceRecorder {
   private startAwaitingRecovery(): void {
     this.awaitingRecovery = true;
     this.recoveryAt = Number.POSITIVE_INFINITY;
+  }
+
+  /** Inserts `count` lost slots before slot `at`, moving the later slots on. */
+  private insertLost(at: number, count: number): void {
+    const tail = this.length - at;
+    for (let n = 0; n < count; n++) this.reserve();
+    this.states.copyWithin(at + count, at, at + tail);
+    this.flags.copyWithin(at + count, at, at + tail);
+    this.offsets.copyWithin(at + count, at, at + tail);
+    this.states.fill(FrameState.Lost, at, at + count);
+    this.flags.fill(0, at, at + count);
+    this.offsets.fill(Number.NaN, at, at + count);
+    if (Number.isFinite(this.recoveryAt) && this.recoveryAt >= at) this.recoveryAt += count;
   }
 
   private pushLost(count: number): void {
@@ -288,6 +414,8 @@ export interface TraceSummary {
   damagedFrames: number;
   lostFrames: number;
   lossEvents: number;
+  /** lostFrames is "at least": see SignalTrace.lostIsLowerBound. */
+  lostIsLowerBound: boolean;
   durationSec: number;
   /** Intact slots / all slots; 1 for an empty trace. */
   intactShare: number;
@@ -323,6 +451,7 @@ export function summarizeTrace(trace: SignalTrace, fps: number): TraceSummary {
     damagedFrames: counts[FrameState.Damaged],
     lostFrames: counts[FrameState.Lost],
     lossEvents: trace.lossEvents,
+    lostIsLowerBound: trace.lostIsLowerBound ?? false,
     durationSec: trace.length / fps,
     intactShare: trace.length === 0 ? 1 : counts[FrameState.Intact] / trace.length,
     firstDegradationSec: firstDegradation < 0 ? null : firstDegradation / fps,
@@ -419,7 +548,15 @@ export function mergeDecoderErrors(
     propagatedUntil = next;
   }
   return {
-    trace: { length: trace.length, states, flags, offsets: trace.offsets.slice(), lossEvents: trace.lossEvents },
+    trace: {
+      length: trace.length,
+      states,
+      flags,
+      offsets: trace.offsets.slice(),
+      lossEvents: trace.lossEvents,
+      lostIsLowerBound: trace.lostIsLowerBound,
+      structure: trace.structure ?? null,
+    },
     agreement,
   };
 }
