@@ -26,7 +26,10 @@ export const shareLinkInput = z
     reportId: uuid.nullish(),
     label: safeText().min(1, "Give the link a label you will recognise").max(120),
     recipientEmails: z.array(z.string().trim().toLowerCase().email("Not an e-mail address").max(320)).max(20).default([]),
-    expiresInDays: z.coerce.number().int().min(1).max(MAX_SHARE_DAYS).default(14),
+    // a number, or digits typed into the form; z.coerce would also take `true` as 1 and "" as 0
+    expiresInDays: z
+      .preprocess((v) => (typeof v === "string" && /^\s*\d+\s*$/.test(v) ? Number(v) : v), z.number({ message: "A whole number of days" }).int("A whole number of days").min(1).max(MAX_SHARE_DAYS))
+      .default(14),
     passcode: z
       .string()
       .superRefine(textRule())
