@@ -5,4 +5,8 @@ export async function register() {
   if (process.env.NEXT_RUNTIME !== "nodejs") return;
   const { requireSecrets } = await import("@/lib/config/env");
   requireSecrets();
+  // settings that lose acknowledged work in a crash are printed, never fatal (lib/config/check-durability.ts)
+  if (process.env.NEXT_PHASE === "phase-production-build") return;
+  const { warnAboutDurability } = await import("@/lib/config/check-durability");
+  void warnAboutDurability().catch(() => {});
 }

@@ -2,6 +2,7 @@
 // down within a bound on SIGTERM/SIGINT (running jobs return to the queue if they cannot finish).
 import { env, requireSecrets } from "@/lib/config/env";
 import { closeDb } from "@/db/client";
+import { warnAboutDurability } from "@/lib/config/check-durability";
 import { startWorker } from "./start-worker";
 import { workerTimings } from "./worker-options";
 
@@ -10,6 +11,8 @@ async function main() {
   const timings = workerTimings();
   const running = await startWorker({ timings });
   console.log(`[worker] ready: Redis ${new URL(env().REDIS_URL).host}, pid ${process.pid}`);
+  // settings that lose acknowledged work in a crash are printed, never fatal (lib/config/check-durability.ts)
+  void warnAboutDurability().catch(() => {});
 
   let stopping = false;
   const stop = async (signal: string) => {
