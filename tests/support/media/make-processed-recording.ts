@@ -55,9 +55,10 @@ export type ProcessedRecording = { recording: typeof s.recordings.$inferSelect; 
 export async function makeProcessedRecording(
   organisationId: string,
   flight: { id: string; jobId: string },
-  o: CounterStreamOptions & { name?: string; sequenceIndex?: number; uploadedBy?: string | null } = {},
+  o: CounterStreamOptions & { name?: string; sequenceIndex?: number; uploadedBy?: string | null; source?: string } = {},
 ): Promise<ProcessedRecording> {
-  const source = await makeCounterH264(o);
+  // `source`: a ready raw H.264 file (e.g. a damaged counter stream) instead of a fresh counter stream
+  const source = o.source ?? (await makeCounterH264(o));
   const digest = await sha256OfStream(createReadStream(source));
   const [rec] = await db()
     .insert(s.recordings)
