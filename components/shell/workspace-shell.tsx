@@ -16,7 +16,7 @@ const NAV: { href: string; label: string; roles?: Role[] }[] = [
   { href: "/upload", label: "Upload", roles: ["owner", "pilot"] },
   { href: "/clients", label: "Clients" },
   { href: "/sites", label: "Sites" },
-  { href: "/range", label: "Range & distance" },
+  { href: "/range", label: "Range & distance", roles: ["owner", "pilot", "reviewer"] },
   { href: "/custody", label: "Custody log", roles: ["owner", "pilot", "reviewer"] },
   { href: "/members", label: "Members", roles: ["owner"] },
 ];

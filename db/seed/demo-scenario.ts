@@ -11,6 +11,9 @@ export const DEMO_USERS = [
   { key: "client", email: "client@kestrelmoor.example", name: "Dara Penhallow", role: "client" },
 ] as const;
 
+// the demo client account sees the work of this client only (membership_clients)
+export const DEMO_CLIENT_ACCOUNT_CLIENTS = ["water"] as const;
+
 // a second, unrelated organisation: its records must never show in the first one
 export const OTHER_ORG = { name: "Harrowfell Drone Works", slug: "harrowfell", timeZone: "UTC" };
 export const OTHER_USER = { email: "owner@harrowfell.example", name: "Evan Quarrie", role: "owner" } as const;

@@ -5,7 +5,7 @@ import * as s from "@/db/schema";
 import { hashPassword } from "@/lib/auth/password";
 import { DEFAULT_CATEGORIES } from "@/lib/findings/default-categories";
 import { demoRangeChecks } from "@/lib/range/demo-range-checks";
-import { DEMO_CLIENTS, DEMO_FLIGHTS, DEMO_JOBS, DEMO_ORG, DEMO_PASSWORD, DEMO_SITES, DEMO_USERS, OTHER_ORG, OTHER_USER } from "./demo-scenario";
+import { DEMO_CLIENT_ACCOUNT_CLIENTS, DEMO_CLIENTS, DEMO_FLIGHTS, DEMO_JOBS, DEMO_ORG, DEMO_PASSWORD, DEMO_SITES, DEMO_USERS, OTHER_ORG, OTHER_USER } from "./demo-scenario";
 
 const day = 24 * 3600 * 1000;
 const isoDay = (offsetDays: number) => new Date(Date.now() + offsetDays * day).toISOString().slice(0, 10);
@@ -18,10 +18,12 @@ export async function seedDemo(database: Db): Promise<{ created: boolean; organi
   const organisationId = await database.transaction(async (tx) => {
     const [org] = await tx.insert(s.organisations).values(DEMO_ORG).returning();
     const userIds: Record<string, string> = {};
+    const membershipIds: Record<string, string> = {};
     for (const u of DEMO_USERS) {
       const [row] = await tx.insert(s.users).values({ email: u.email, name: u.name, passwordHash, emailVerifiedAt: new Date() }).returning();
       userIds[u.key] = row.id;
-      await tx.insert(s.memberships).values({ organisationId: org.id, userId: row.id, role: u.role });
+      const [m] = await tx.insert(s.memberships).values({ organisationId: org.id, userId: row.id, role: u.role }).returning({ id: s.memberships.id });
+      membershipIds[u.key] = m.id;
     }
     const clientIds: Record<string, string> = {};
     for (const c of DEMO_CLIENTS) {
@@ -29,6 +31,9 @@ export async function seedDemo(database: Db): Promise<{ created: boolean; organi
       const [row] = await tx.insert(s.clients).values({ ...values, organisationId: org.id }).returning();
       clientIds[key] = row.id;
     }
+    await tx
+      .insert(s.membershipClients)
+      .values(DEMO_CLIENT_ACCOUNT_CLIENTS.map((c) => ({ membershipId: membershipIds.client, clientId: clientIds[c], organisationId: org.id })));
     const siteIds: Record<string, string> = {};
     for (const site of DEMO_SITES) {
       const { key, client, ...values } = site;

@@ -25,12 +25,16 @@ export const PERMISSIONS = [
   "holds.manage",
   "rangechecks.write",
   "settings.manage",
+  "views.read",
+  "range.read",
 ] as const;
 export type Permission = (typeof PERMISSIONS)[number];
 
 const ALL = new Set<Permission>(PERMISSIONS);
 
-// client accounts are optional and read-only: they see what was shared through the workspace too
+// client accounts are optional and read-only, and see only the work of the clients they are tied to
+// (lib/auth/client-scope.ts): jobs, flights, recordings, findings and approved reports; not the range
+// tools nor who watched what
 export const ROLE_PERMISSIONS: Record<Role, ReadonlySet<Permission>> = {
   owner: ALL,
   pilot: new Set<Permission>([
@@ -45,6 +49,8 @@ export const ROLE_PERMISSIONS: Record<Role, ReadonlySet<Permission>> = {
     "findings.read",
     "custody.read",
     "rangechecks.write",
+    "views.read",
+    "range.read",
   ]),
   reviewer: new Set<Permission>([
     "workspace.read",
@@ -55,6 +61,8 @@ export const ROLE_PERMISSIONS: Record<Role, ReadonlySet<Permission>> = {
     "findings.write",
     "reports.build",
     "custody.read",
+    "views.read",
+    "range.read",
   ]),
   client: new Set<Permission>(["workspace.read", "recordings.read", "findings.read"]),
 };
@@ -67,5 +75,5 @@ export const ROLE_LABELS: Record<Role, { label: string; meaning: string }> = {
   owner: { label: "Owner", meaning: "Sets up clients, sites and jobs, manages the crew, sharing, holds and retention." },
   pilot: { label: "Pilot", meaning: "Uploads recordings, logs flights and range checks." },
   reviewer: { label: "Reviewer", meaning: "Watches recordings, marks findings and builds reports." },
-  client: { label: "Client", meaning: "Read-only access to the organisation's workspace lists." },
+  client: { label: "Client", meaning: "Read-only access to the jobs of the clients it is tied to, with their approved reports." },
 };

@@ -62,8 +62,9 @@ const SORTABLE: Record<NonNullable<RecordingListQuery["sort"]>, SQL | AnyColumn>
   uploadedAt: recordings.createdAt,
 };
 
-export async function listRecordings(organisationId: string, q: RecordingListQuery) {
-  const where: (SQL | undefined)[] = [eq(recordings.organisationId, organisationId), isNull(recordings.deletedAt)];
+/** `scope`: a further condition, e.g. a client account's clients (lib/auth/client-scope.ts). */
+export async function listRecordings(organisationId: string, q: RecordingListQuery, scope?: SQL) {
+  const where: (SQL | undefined)[] = [eq(recordings.organisationId, organisationId), isNull(recordings.deletedAt), scope];
   if (q.flightId) where.push(eq(recordings.flightId, q.flightId));
   if (q.jobId) where.push(eq(recordings.jobId, q.jobId));
   if (q.state) where.push(eq(recordings.state, q.state));

@@ -25,5 +25,5 @@ export type MediaFile = {
 
 /** Who is opening a file: a member of the organisation, or (later) a share link. */
 export type MediaPrincipal =
-  | { type: "member"; organisationId: string; userId: string; role: "owner" | "pilot" | "reviewer" | "client" }
+  | { type: "member"; organisationId: string; userId: string; role: "owner" | "pilot" | "reviewer" | "client"; clientIds: string[] | null }
   | { type: "share-link"; organisationId: string; shareLinkId: string };

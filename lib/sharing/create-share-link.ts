@@ -37,10 +37,12 @@ async function checkTargets(organisationId: string, input: ShareLinkInput): Prom
   }
   if (input.reportId) {
     const [r] = await db()
-      .select({ id: reports.id })
+      .select({ id: reports.id, state: reports.state, version: reports.version })
       .from(reports)
-      .where(and(eq(reports.id, input.reportId), eq(reports.organisationId, organisationId), eq(reports.jobId, input.jobId), inArray(reports.state, ["ready", "approved"])));
-    if (!r) fields.reportId = ["That report version is not ready, or not part of this job"];
+      .where(and(eq(reports.id, input.reportId), eq(reports.organisationId, organisationId), eq(reports.jobId, input.jobId)));
+    // only an approved version leaves the organisation: a draft could be read as the final word
+    if (!r) fields.reportId = ["That report version is not part of this job"];
+    else if (r.state !== "approved") fields.reportId = [`Version ${r.version} is not approved; only an approved report version can be shared`];
   }
   if (Object.keys(fields).length) throw new ApiError("unprocessable", "Some of the shared items are not available", fields);
 }

@@ -1,6 +1,6 @@
-// What a job offers to share: its recordings (not deleted), live findings and report versions that
-// are built. The share form picks from these; create-share-link checks the choice again.
-import { and, asc, desc, eq, inArray, isNull } from "drizzle-orm";
+// What a job offers to share: its recordings (not deleted), live findings and approved report
+// versions (a draft is never shared). The share form picks from these; create-share-link checks the choice again.
+import { and, asc, desc, eq, isNull } from "drizzle-orm";
 import { db } from "@/db/client";
 import { findingCategories, findings, jobs, recordings, reports } from "@/db/schema";
 import { notFound } from "@/lib/api/errors";
@@ -30,7 +30,7 @@ export async function listShareOptions(organisationId: string, jobId: string) {
   const reps = await db()
     .select({ id: reports.id, version: reports.version, state: reports.state, approvedAt: reports.approvedAt })
     .from(reports)
-    .where(and(eq(reports.organisationId, organisationId), eq(reports.jobId, jobId), inArray(reports.state, ["ready", "approved"])))
+    .where(and(eq(reports.organisationId, organisationId), eq(reports.jobId, jobId), eq(reports.state, "approved")))
     .orderBy(desc(reports.version));
   return { job, recordings: recs, findings: found, reports: reps };
 }

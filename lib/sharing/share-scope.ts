@@ -130,7 +130,7 @@ async function loadReport(link: ScopeLink): Promise<ScopeReport | null> {
     const [r] = await db()
       .select(columns)
       .from(reports)
-      .where(and(inJob, eq(reports.id, link.reportId), inArray(reports.state, ["ready", "approved"])));
+      .where(and(inJob, eq(reports.id, link.reportId), eq(reports.state, "approved")));
     return r ?? null;
   }
   if (link.scope !== "job") return null;

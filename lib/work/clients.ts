@@ -1,5 +1,5 @@
 // Clients of the organisation: list, read, create, update, archive.
-import { and, asc, eq } from "drizzle-orm";
+import { and, asc, eq, type SQL } from "drizzle-orm";
 import { db } from "@/db/client";
 import { clients, sites } from "@/db/schema";
 import { notFound } from "@/lib/api/errors";
@@ -17,11 +17,12 @@ const columns = {
   updatedAt: clients.updatedAt,
 };
 
-export async function listClients(orgId: string, params: ListParams) {
+/** `scope`: a further condition, e.g. a client account's clients (lib/auth/client-scope.ts). */
+export async function listClients(orgId: string, params: ListParams, scope?: SQL) {
   const rows = await db()
     .select({ ...columns, siteCount: db().$count(sites, and(eq(sites.clientId, clients.id), eq(sites.organisationId, orgId))), total: totalCount })
     .from(clients)
-    .where(listWhere({ orgFilter: eq(clients.organisationId, orgId), params, searchColumns: [clients.name, clients.contactName, clients.contactEmail], archivedColumn: clients.archivedAt }))
+    .where(listWhere({ orgFilter: eq(clients.organisationId, orgId), params, searchColumns: [clients.name, clients.contactName, clients.contactEmail], archivedColumn: clients.archivedAt, extra: [scope] }))
     .orderBy(...listOrder(params, { name: clients.name, contactName: clients.contactName, createdAt: clients.createdAt }, asc(clients.name)))
     .limit(pageOf(params).limit)
     .offset(pageOf(params).offset);

@@ -1,5 +1,5 @@
 // Flights of the organisation: list, read, create, update, archive. A flight is one sortie flown for a job.
-import { and, asc, desc, eq, sql } from "drizzle-orm";
+import { and, asc, desc, eq, sql, type SQL } from "drizzle-orm";
 import { alias } from "drizzle-orm/pg-core";
 import { db, type DbOrTx } from "@/db/client";
 import { clients, flights, jobs, sites, users } from "@/db/schema";
@@ -48,7 +48,8 @@ const joined = () =>
     .innerJoin(clients, eq(clients.id, sites.clientId))
     .leftJoin(pilot, eq(pilot.id, flights.pilotId));
 
-export async function listFlights(orgId: string, params: FlightListQuery) {
+/** `scope`: a further condition, e.g. a client account's clients (lib/auth/client-scope.ts). */
+export async function listFlights(orgId: string, params: FlightListQuery, scope?: SQL) {
   const rows = await joined()
     .where(
       listWhere({
@@ -57,6 +58,7 @@ export async function listFlights(orgId: string, params: FlightListQuery) {
         searchColumns: [flights.aircraft, flights.notes, jobs.title, sites.name, clients.name, pilot.name],
         archivedColumn: flights.archivedAt,
         extra: [
+          scope,
           params.jobId ? eq(flights.jobId, params.jobId) : undefined,
           params.siteId ? eq(jobs.siteId, params.siteId) : undefined,
           params.clientId ? eq(sites.clientId, params.clientId) : undefined,

@@ -1,6 +1,6 @@
 // Jobs of the organisation: list, read, create, update, archive. A job is a piece of inspection work
 // at a site, with a status and an assigned pilot and reviewer.
-import { and, asc, eq, inArray, isNull, sql } from "drizzle-orm";
+import { and, asc, eq, inArray, isNull, sql, type SQL } from "drizzle-orm";
 import { alias } from "drizzle-orm/pg-core";
 import { db, type DbOrTx } from "@/db/client";
 import { clients, flights, jobs, sites, users } from "@/db/schema";
@@ -37,7 +37,8 @@ const related = {
   reviewerName: reviewer.name,
 };
 
-export async function listJobs(orgId: string, params: JobListQuery) {
+/** `scope`: a further condition, e.g. a client account's clients (lib/auth/client-scope.ts). */
+export async function listJobs(orgId: string, params: JobListQuery, scope?: SQL) {
   const rows = await db()
     .select({
       ...columns,
@@ -57,6 +58,7 @@ export async function listJobs(orgId: string, params: JobListQuery) {
         searchColumns: [jobs.title, jobs.scope, sites.name, clients.name],
         archivedColumn: jobs.archivedAt,
         extra: [
+          scope,
           params.clientId ? eq(sites.clientId, params.clientId) : undefined,
           params.siteId ? eq(jobs.siteId, params.siteId) : undefined,
           params.pilotId ? eq(jobs.pilotId, params.pilotId) : undefined,

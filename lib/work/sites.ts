@@ -1,5 +1,5 @@
 // Sites of the organisation: list, read, create, update, archive.
-import { and, asc, eq, isNull, sql } from "drizzle-orm";
+import { and, asc, eq, isNull, sql, type SQL } from "drizzle-orm";
 import { db } from "@/db/client";
 import { clients, jobs, sites } from "@/db/schema";
 import { ApiError, notFound } from "@/lib/api/errors";
@@ -23,7 +23,8 @@ const columns = {
   updatedAt: sites.updatedAt,
 };
 
-export async function listSites(orgId: string, params: SiteListQuery) {
+/** `scope`: a further condition, e.g. a client account's clients (lib/auth/client-scope.ts). */
+export async function listSites(orgId: string, params: SiteListQuery, scope?: SQL) {
   const rows = await db()
     .select({
       ...columns,
@@ -39,7 +40,7 @@ export async function listSites(orgId: string, params: SiteListQuery) {
         params,
         searchColumns: [sites.name, sites.address, clients.name],
         archivedColumn: sites.archivedAt,
-        extra: [params.clientId ? eq(sites.clientId, params.clientId) : undefined, params.assetKind ? eq(sites.assetKind, params.assetKind) : undefined],
+        extra: [scope, params.clientId ? eq(sites.clientId, params.clientId) : undefined, params.assetKind ? eq(sites.assetKind, params.assetKind) : undefined],
       }),
     )
     .orderBy(

@@ -6,7 +6,7 @@ import { SlantRangeCalculator } from "@/components/range/slant-range-calculator"
 export const metadata = { title: "Range & distance" };
 
 export default async function RangePage() {
-  const member = await pageMember();
+  const member = await pageMember("range.read");
   const sites = await loadPlanSites(member.organisationId);
   return <SlantRangeCalculator sites={sites} initialUnits={member.preferredUnits} />;
 }

@@ -9,6 +9,9 @@
 import { ApiError, errorResponse } from "@/lib/api/errors";
 import { assertSameOrigin } from "@/lib/api/refuse-cross-site";
 import { requireMember } from "@/lib/api/with-org";
+import { inScope, isClientScoped } from "@/lib/auth/client-scope";
+
+const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 import { env } from "@/lib/config/env";
 import { readBeacons, BeaconError } from "@/lib/playback/read-beacons";
 import { recordPlaybackViews } from "@/lib/playback/record-playback-views";
@@ -73,7 +76,11 @@ export async function POST(req: Request) {
     };
     if (own.length > 0 || shared.length === 0) {
       const member = await requireMember(req);
-      add(await recordPlaybackViews({ organisationId: member.organisationId, userId: member.userId, shareLinkId: null }, own));
+      // a client account counts views only of recordings it may see (its own clients' jobs)
+      const mine = [];
+      for (const v of own) if (!isClientScoped(member) || (UUID.test(v.recordingId) && (await inScope(member, "recording", v.recordingId.toLowerCase())))) mine.push(v);
+      result.ignored += own.length - mine.length;
+      add(await recordPlaybackViews({ organisationId: member.organisationId, userId: member.userId, shareLinkId: null }, mine));
     }
     for (const view of shared) {
       const viewer = await shareViewerOf(view.accessToken!, view.recordingId);

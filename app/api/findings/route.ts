@@ -1,6 +1,7 @@
 // GET /api/findings?recordingId=|jobId=: live findings of a recording or a job; POST /api/findings: mark one
+import { jobScopeCondition } from "@/lib/auth/client-scope";
 import { z } from "zod";
-import { eq } from "drizzle-orm";
+import { and, eq } from "drizzle-orm";
 import { withOrg, readJson, parseQuery, created, ok } from "@/lib/api/with-org";
 import { ApiError } from "@/lib/api/errors";
 import { findings } from "@/db/schema";
@@ -15,7 +16,7 @@ export const GET = withOrg({ permission: "findings.read" }, async ({ req, member
   const q = parseQuery(req, query);
   if (!q.recordingId && !q.jobId) throw new ApiError("bad_request", "Ask for the findings of a recording (recordingId) or a job (jobId)");
   const where = q.recordingId ? eq(findings.recordingId, q.recordingId) : eq(findings.jobId, q.jobId!);
-  const items = await loadFindingViews(member.organisationId, where);
+  const items = await loadFindingViews(member.organisationId, and(where, jobScopeCondition(member, findings.jobId))!);
   return ok({ items, total: items.length });
 });
 

@@ -3,8 +3,15 @@ import { withOrg, parseQuery, ok } from "@/lib/api/with-org";
 import { can } from "@/lib/auth/permissions";
 import { memberListQuery } from "@/lib/validation/list-filters";
 import { listMembers } from "@/lib/work/members";
+import { isClientScoped } from "@/lib/auth/client-scope";
+import type { Role } from "@/db/schema/types";
+
+const CREW: Role[] = ["owner", "pilot", "reviewer"];
 
 export const GET = withOrg({ permission: "workspace.read" }, async ({ req, member }) => {
   const { role, ...params } = parseQuery(req, memberListQuery);
-  return ok(await listMembers(member.organisationId, { ...params, roles: role }, { withEmail: can(member.role, "members.manage") }));
+  // a client account sees the crew, never other client accounts (other customers' people)
+  const roles = isClientScoped(member) ? (role?.length ? role : CREW).filter((r) => CREW.includes(r)) : role;
+  if (roles?.length === 0) return ok({ items: [], total: 0 });
+  return ok(await listMembers(member.organisationId, { ...params, roles }, { withEmail: can(member.role, "members.manage") }));
 });

@@ -3,7 +3,7 @@ import { withOrg, readJson, parseQuery, listQuery, created, ok } from "@/lib/api
 import { flightFilter, rangeCheckCreateInput } from "@/lib/validation/range-checks";
 import { createRangeCheck, listRangeChecks } from "@/lib/range/range-checks";
 
-export const GET = withOrg({ permission: "workspace.read" }, async ({ req, member }) =>
+export const GET = withOrg({ permission: "range.read" }, async ({ req, member }) =>
   ok(await listRangeChecks(member.organisationId, parseQuery(req, listQuery.extend(flightFilter.shape)))),
 );
 

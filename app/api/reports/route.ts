@@ -1,6 +1,7 @@
 // GET /api/reports?jobId=: the job's report versions, newest first; POST /api/reports {jobId}: build a new version
+import { reportScopeCondition } from "@/lib/auth/client-scope";
 import { z } from "zod";
-import { eq } from "drizzle-orm";
+import { and, eq } from "drizzle-orm";
 import { withOrg, readJson, parseQuery, created, ok } from "@/lib/api/with-org";
 import { reports } from "@/db/schema";
 import { loadReportViews } from "@/lib/reports/report-view";
@@ -11,7 +12,8 @@ const input = z.object({ jobId: z.string().uuid("Unknown job") }).strict();
 
 export const GET = withOrg({ permission: "findings.read" }, async ({ req, member }) => {
   const { jobId } = parseQuery(req, query);
-  const items = await loadReportViews(member.organisationId, eq(reports.jobId, jobId));
+  // a client account sees only approved versions of its own jobs
+  const items = await loadReportViews(member.organisationId, and(eq(reports.jobId, jobId), reportScopeCondition(member))!);
   return ok({ items, total: items.length });
 });
 

@@ -1,5 +1,6 @@
 // The flight timeline API against the real Postgres: a flight's files in order with the gaps between
 // them, the pilot's re-ordering (all or nothing, in one transaction), authorization and isolation.
+import { clientOf, tieClientAccount } from "@/tests/support/client-scope";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { randomUUID } from "node:crypto";
 import { eq } from "drizzle-orm";
@@ -58,6 +59,8 @@ beforeAll(async () => {
   orgId = await demoOrganisationId();
   const flight = await makeFlight(orgId);
   flightId = flight.id;
+  // the demo client account is tied to this flight's client; a client account tied elsewhere gets 404
+  await tieClientAccount(actors.client!, await clientOf({ flightId }));
   // Uploaded in a muddled order; sequenceIndex as ingest placed them by file time.
   ids.second = await addFile(flight, "REC_0002.264", "2026-03-14T10:02:30Z", 30, 1, { lostFrames: 45, firstDegradationSec: 12 });
   ids.first = await addFile(flight, "REC_0001.264", "2026-03-14T10:01:00Z", 60, 0);

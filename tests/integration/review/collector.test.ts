@@ -90,11 +90,13 @@ describe("collector", () => {
       if (actor) h.cookie = await sessionCookie(actor);
       return viewsApi.GET(new Request(`http://localhost/api/collector/views?recordingId=${recordingId}`, { headers: h }));
     };
-    const body = await (await req(actors.client)).json();
+    const body = await (await req(actors.pilot)).json();
     expect(body.items).toHaveLength(1);
     expect(body.items[0]).toMatchObject({ viewerName: "Cleo Marchbank", watchTimeMs: 9000, rebufferCount: 2 });
     expect((await req(actors.other)).status).toBe(404);
     expect((await req(null)).status).toBe(401);
+    // who watched what is the crew's business, not a client account's (views.read)
+    expect((await req(actors.client)).status).toBe(403);
   });
 });
 

@@ -1,5 +1,6 @@
 // Findings through the API against the real Postgres: marking at a frame or over a range, refusing
 // what does not fit the recording with nothing saved half-way, history of every edit, recorded deletion.
+import { clientOf, tieClientAccount } from "@/tests/support/client-scope";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { and, eq } from "drizzle-orm";
 import * as list from "@/app/api/findings/route";
@@ -35,6 +36,8 @@ beforeAll(async () => {
   orgId = await demoOrganisationId();
   const flight = await makeFlight(orgId);
   rec = await makeProcessedRecording(orgId, flight, { seconds: 2, fps: 30 });
+  // the demo client account may see this job (its client is tied to it)
+  await tieClientAccount(actors.client!, await clientOf({ flightId: flight.id }));
   frameCount = rec.recording.facts!.frameCount!;
   const [c] = await db().insert(s.findingCategories).values({ organisationId: actors.other!.organisationId, name: "Theirs" }).returning();
   otherOrgCategoryId = c.id;

@@ -1,5 +1,6 @@
 // The media route against RFC 9110 range semantics and against authorization on every request.
 // Byte-level oracle: the stored file read directly with node:fs, and its SHA-256 from node:crypto.
+import { clientOf, tieClientAccount } from "@/tests/support/client-scope";
 import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 import { readFile, readdir } from "node:fs/promises";
 import { createHash } from "node:crypto";
@@ -28,6 +29,8 @@ beforeAll(async () => {
   const orgId = await demoOrganisationId();
   const flight = await makeFlight(orgId);
   rec = await makeProcessedRecording(orgId, flight, { seconds: 2 });
+  // the demo client account may see this job (its client is tied to it)
+  await tieClientAccount(actors.client!, await clientOf({ flightId: flight.id }));
   const row = rec.renditions.find((r) => r.kind === "playable")!;
   playable = await readFile(storePath(row.storageKey));
 });
@@ -135,7 +138,7 @@ describe("authorization on every request", () => {
     ["owner", 206],
     ["pilot", 206],
     ["reviewer", 206],
-    ["client", 206], // client accounts may read the workspace's recordings
+    ["client", 206], // a client account tied to the job's client may read its recordings
     ["other", 404], // another organisation: not found, not forbidden
     ["anonymous", 401],
   ];

@@ -88,7 +88,7 @@ describe("building, reading back, approving and downloading a report", () => {
 
   it("the worker builds it: stored PDF, recorded SHA-256 matching the bytes, custody entry", async () => {
     expect(await buildReport({ reportId })).toBe("built");
-    const view = await (await reportApi.GET(await req(actors.client, "GET", "/x"), route({ id: reportId }))).json();
+    const view = await (await reportApi.GET(await req(actors.reviewer, "GET", "/x"), route({ id: reportId }))).json();
     expect(view).toMatchObject({ state: "ready", progress: 100, downloadUrl: `/api/reports/${reportId}/download` });
     const [row] = await db().select().from(s.reports).where(eq(s.reports.id, reportId));
     pdf = await readFile(storePath(row.storageKey!));
@@ -155,12 +155,14 @@ describe("building, reading back, approving and downloading a report", () => {
   });
 
   it("downloads as an attachment with Range support; access is checked on every request", async () => {
-    const res = await downloadApi.GET(await req(actors.client, "GET", "/x"), { params: Promise.resolve({ id: reportId }) });
+    // a client account never sees a version that is not approved (client-scope.test.ts)
+    expect((await downloadApi.GET(await req(actors.client, "GET", "/x"), { params: Promise.resolve({ id: reportId }) })).status).toBe(404);
+    const res = await downloadApi.GET(await req(actors.reviewer, "GET", "/x"), { params: Promise.resolve({ id: reportId }) });
     expect(res.status).toBe(200);
     expect(res.headers.get("content-type")).toBe("application/pdf");
     expect(res.headers.get("content-disposition")).toMatch(/^attachment; filename="Inspection report - Report test job - v1\.pdf"/);
     expect(Buffer.from(await res.arrayBuffer()).equals(pdf)).toBe(true);
-    const part = await downloadApi.GET(await req(actors.client, "GET", "/x", undefined, { range: "bytes=0-4" }), { params: Promise.resolve({ id: reportId }) });
+    const part = await downloadApi.GET(await req(actors.reviewer, "GET", "/x", undefined, { range: "bytes=0-4" }), { params: Promise.resolve({ id: reportId }) });
     expect(part.status).toBe(206);
     expect(await part.text()).toBe("%PDF-");
     expect((await downloadApi.GET(await req(actors.other, "GET", "/x"), { params: Promise.resolve({ id: reportId }) })).status).toBe(404);

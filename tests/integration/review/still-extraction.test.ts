@@ -1,6 +1,7 @@
 // The still of a finding at frame N is frame N: compared with the frame that ffmpeg decodes on its own
 // by counting frames from the start (`select=eq(n\,N)`), pixel by pixel in 8-bit luma. The test pattern
 // carries the frame number burned in, so a neighbouring frame differs clearly.
+import { clientOf, tieClientAccount } from "@/tests/support/client-scope";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { readFile } from "node:fs/promises";
 import { createHash } from "node:crypto";
@@ -57,6 +58,8 @@ beforeAll(async () => {
   actors = await demoActors();
   const orgId = await demoOrganisationId();
   rec = await makeProcessedRecording(orgId, await makeFlight(orgId), { seconds: 2, fps: 30, width: W, height: H, gop: 15 });
+  // the demo client account may see this job (its client is tied to it)
+  await tieClientAccount(actors.client!, await clientOf({ recordingId: rec.recording.id }));
   playablePath = storePath(rec.renditions.find((r) => r.kind === "playable")!.storageKey);
 });
 afterAll(async () => {

@@ -1,5 +1,6 @@
 // The flights API against the real Postgres: authorization matrix (pilots log flights), job and pilot
 // references, altitude in metres, bad input and filters.
+import { clientOf, tieClientAccount } from "@/tests/support/client-scope";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { eq } from "drizzle-orm";
 import * as list from "@/app/api/flights/route";
@@ -22,6 +23,8 @@ beforeAll(async () => {
   actors = await demoActors();
   orgId = await demoOrganisationId();
   jobId = (await makeJob(orgId, { title: "Flights test job" })).id;
+  // the demo client account sees this job's flights (client-scope.test.ts covers the rest)
+  await tieClientAccount(actors.client!, await clientOf({ jobId }));
   otherOrgJobId = (await makeJob(actors.other!.organisationId, { title: "Other org job" })).id;
   otherOrgFlightId = (await makeFlight(actors.other!.organisationId, { jobId: otherOrgJobId, aircraft: "Other airframe" })).id;
 });

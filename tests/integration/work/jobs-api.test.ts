@@ -1,5 +1,6 @@
 // The jobs API against the real Postgres: authorization matrix, site and crew references, bad input,
 // filters and the job detail.
+import { clientOf, tieClientAccount } from "@/tests/support/client-scope";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { eq } from "drizzle-orm";
 import * as list from "@/app/api/jobs/route";
@@ -21,6 +22,8 @@ beforeAll(async () => {
   actors = await demoActors();
   orgId = await demoOrganisationId();
   siteId = (await makeSite(orgId, { name: "Jobs test site", timeZone: "Europe/London" })).id;
+  // the demo client account sees the jobs at this site's client (client-scope.test.ts covers the rest)
+  await tieClientAccount(actors.client!, await clientOf({ siteId }));
   otherOrgSiteId = (await makeSite(actors.other!.organisationId, { name: "Other org site" })).id;
   otherOrgJobId = (await makeJob(actors.other!.organisationId, { siteId: otherOrgSiteId, title: "Other org job" })).id;
 });

@@ -1,5 +1,6 @@
 // The sites API against the real Postgres: authorization matrix, references across organisations,
 // bad input, filters and paging.
+import { tieClientAccount } from "@/tests/support/client-scope";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { eq } from "drizzle-orm";
 import * as list from "@/app/api/sites/route";
@@ -20,6 +21,8 @@ beforeAll(async () => {
   actors = await demoActors();
   orgId = await demoOrganisationId();
   clientId = (await makeClient(orgId, { name: "Sites test client" })).id;
+  // the demo client account sees this client's sites (client-scope.test.ts covers the rest)
+  await tieClientAccount(actors.client!, clientId);
   const otherClient = await makeClient(actors.other!.organisationId, { name: "Other org client" });
   otherOrgClientId = otherClient.id;
   otherOrgSiteId = (await makeSite(actors.other!.organisationId, { clientId: otherClient.id, name: "Other org site" })).id;

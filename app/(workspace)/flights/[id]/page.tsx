@@ -1,6 +1,8 @@
 // A flight's page: its facts, then the sections later parts of Cairn add (components/work/flight-sections.tsx).
 import { notFound } from "next/navigation";
 import { pageMember } from "@/lib/auth/page-member";
+import { inScope } from "@/lib/auth/client-scope";
+import type { Member } from "@/lib/auth/load-member";
 import { can } from "@/lib/auth/permissions";
 import { ApiError } from "@/lib/api/errors";
 import { getFlightOrThrow } from "@/lib/work/flights";
@@ -10,8 +12,11 @@ import { DetailSection } from "@/components/work/detail-section";
 
 const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 
-async function loadFlight(orgId: string, id: string) {
+async function loadFlight(member: Member, id: string) {
   if (!UUID.test(id)) notFound();
+  // a client account: only its own clients' work; anything else is "not found"
+  if (!(await inScope(member, "flight", id.toLowerCase()))) notFound();
+  const orgId = member.organisationId;
   try {
     return await getFlightOrThrow(orgId, id);
   } catch (err) {
@@ -22,13 +27,13 @@ async function loadFlight(orgId: string, id: string) {
 
 export async function generateMetadata({ params }: { params: Promise<{ id: string }> }) {
   const member = await pageMember();
-  const flight = await loadFlight(member.organisationId, (await params).id);
+  const flight = await loadFlight(member, (await params).id);
   return { title: `Flight ${flight.flownOn}` };
 }
 
 export default async function FlightPage({ params }: { params: Promise<{ id: string }> }) {
   const member = await pageMember();
-  const flight = await loadFlight(member.organisationId, (await params).id);
+  const flight = await loadFlight(member, (await params).id);
   const data = JSON.parse(JSON.stringify(flight)) as FlightDetailData;
   return (
     <div className="flex flex-col gap-8">

@@ -1,6 +1,8 @@
 // A job's page: its facts and flights, then the sections later parts of Cairn add (components/work/job-sections.tsx).
 import { notFound } from "next/navigation";
 import { pageMember } from "@/lib/auth/page-member";
+import { inScope } from "@/lib/auth/client-scope";
+import type { Member } from "@/lib/auth/load-member";
 import { can } from "@/lib/auth/permissions";
 import { ApiError } from "@/lib/api/errors";
 import { getJobOrThrow } from "@/lib/work/jobs";
@@ -10,8 +12,11 @@ import { DetailSection } from "@/components/work/detail-section";
 
 const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 
-async function loadJob(orgId: string, id: string) {
+async function loadJob(member: Member, id: string) {
   if (!UUID.test(id)) notFound();
+  // a client account: only its own clients' work; anything else is "not found"
+  if (!(await inScope(member, "job", id.toLowerCase()))) notFound();
+  const orgId = member.organisationId;
   try {
     return await getJobOrThrow(orgId, id);
   } catch (err) {
@@ -22,13 +27,13 @@ async function loadJob(orgId: string, id: string) {
 
 export async function generateMetadata({ params }: { params: Promise<{ id: string }> }) {
   const member = await pageMember();
-  const job = await loadJob(member.organisationId, (await params).id);
+  const job = await loadJob(member, (await params).id);
   return { title: job.title };
 }
 
 export default async function JobPage({ params }: { params: Promise<{ id: string }> }) {
   const member = await pageMember();
-  const job = await loadJob(member.organisationId, (await params).id);
+  const job = await loadJob(member, (await params).id);
   // dates become ISO strings on their way to the browser
   const data = JSON.parse(JSON.stringify(job)) as JobDetailData;
   return (

@@ -7,7 +7,7 @@ import { RangeChecksView } from "@/components/range/range-checks-view";
 export const metadata = { title: "Range checks" };
 
 export default async function RangeChecksPage({ searchParams }: { searchParams: Promise<{ flightId?: string | string[] }> }) {
-  const member = await pageMember();
+  const member = await pageMember("range.read");
   const flights = await loadRangeFlights(member.organisationId);
   const wanted = (await searchParams).flightId;
   const flightId = flights.find((f) => f.id === wanted)?.id ?? flights[0]?.id ?? null;

@@ -1,5 +1,6 @@
 import { notFound } from "next/navigation";
 import { pageMember } from "@/lib/auth/page-member";
+import { inScope } from "@/lib/auth/client-scope";
 import { can } from "@/lib/auth/permissions";
 import { loadRecordingPage } from "@/lib/findings/load-recording-page";
 import { loadFindingView } from "@/lib/findings/finding-view";
@@ -12,6 +13,7 @@ export default async function RecordingPage({ params, searchParams }: { params: 
   const member = await pageMember("recordings.read");
   const { id } = await params;
   if (!UUID.test(id)) notFound();
+  if (!(await inScope(member, "recording", id.toLowerCase()))) notFound();
   const data = await loadRecordingPage(member.organisationId, id.toLowerCase());
   if (!data) notFound();
   const sp = await searchParams;

@@ -1,4 +1,5 @@
 // GET/PATCH/DELETE /api/clients/:id: read, edit, archive one client (DELETE archives; nothing is erased)
+import { requireInScope } from "@/lib/auth/client-scope";
 import { withOrg, readJson, idParam, ok } from "@/lib/api/with-org";
 import { clientInput } from "@/lib/validation/work";
 import { getClientOrThrow, updateClient } from "@/lib/work/clients";
@@ -7,8 +8,11 @@ import { z } from "zod";
 type P = { id: string };
 const patch = clientInput.partial().extend({ archived: z.boolean().optional() }).strict();
 
-export const GET = withOrg<P>({ permission: "workspace.read" }, async ({ params, member }) =>
-  ok(await getClientOrThrow(member.organisationId, idParam(params.id, "Client not found"))),
+export const GET = withOrg<P>({ permission: "workspace.read" }, async ({ params, member }) => {
+  const id = idParam(params.id, "Client not found");
+  await requireInScope(member, "client", id, "Client not found");
+  return ok(await getClientOrThrow(member.organisationId, id));
+}
 );
 
 export const PATCH = withOrg<P>({ permission: "clients.write" }, async ({ req, params, member }) => {

@@ -5,6 +5,7 @@ import { listPlaybackViews } from "@/lib/playback/list-playback-views";
 
 const query = z.object({ recordingId: z.string().uuid() });
 
-export const GET = withOrg({ permission: "recordings.read" }, async ({ req, member }) =>
+// who watched is the crew's business: a client account is refused (views.read)
+export const GET = withOrg({ permission: "views.read" }, async ({ req, member }) =>
   ok(await listPlaybackViews(member.organisationId, parseQuery(req, query).recordingId)),
 );

@@ -1,4 +1,5 @@
 // GET/PATCH/DELETE /api/findings/:id: read, edit (kept as a new version) or delete (recorded, not erased) a finding
+import { requireInScope } from "@/lib/auth/client-scope";
 import { z } from "zod";
 import { plainText } from "@/lib/validation/common";
 import { withOrg, readJson, idParam, ok } from "@/lib/api/with-org";
@@ -13,7 +14,9 @@ type P = { id: string };
 const deleteInput = z.object({ reason: plainText(500, true).optional() }).strict();
 
 export const GET = withOrg<P>({ permission: "findings.read" }, async ({ params, member }) => {
-  const view = await loadFindingView(member.organisationId, idParam(params.id, "Finding not found"));
+  const id = idParam(params.id, "Finding not found");
+  await requireInScope(member, "finding", id, "Finding not found");
+  const view = await loadFindingView(member.organisationId, id);
   if (!view) throw notFound("Finding not found");
   return ok(view);
 });

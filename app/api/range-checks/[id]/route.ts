@@ -5,7 +5,7 @@ import { archiveRangeCheck, getRangeCheckOrThrow, updateRangeCheck } from "@/lib
 
 type P = { id: string };
 
-export const GET = withOrg<P>({ permission: "workspace.read" }, async ({ params, member }) =>
+export const GET = withOrg<P>({ permission: "range.read" }, async ({ params, member }) =>
   ok(await getRangeCheckOrThrow(member.organisationId, idParam(params.id, "Range check not found"))),
 );
 

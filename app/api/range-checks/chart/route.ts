@@ -7,7 +7,7 @@ import { loadRangeChartRows } from "@/lib/range/load-range-check-export";
 
 const query = flightFilter.extend({ by: z.enum(CHART_DIMENSIONS, { message: "Compare by camera orientation, antenna orientation or aircraft" }).default("cameraOrientation") });
 
-export const GET = withOrg({ permission: "workspace.read" }, async ({ req, member }) => {
+export const GET = withOrg({ permission: "range.read" }, async ({ req, member }) => {
   const { flightId, by } = parseQuery(req, query);
   return ok(aggregateRangeChart(await loadRangeChartRows(member.organisationId, flightId), by));
 });

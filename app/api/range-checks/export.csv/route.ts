@@ -4,7 +4,7 @@ import { flightFilter } from "@/lib/validation/range-checks";
 import { buildRangeChecksCsv } from "@/lib/range/build-range-checks-csv";
 import { loadRangeCheckExportRows } from "@/lib/range/load-range-check-export";
 
-export const GET = withOrg({ permission: "workspace.read" }, async ({ req, member }) => {
+export const GET = withOrg({ permission: "range.read" }, async ({ req, member }) => {
   const { flightId } = parseQuery(req, flightFilter);
   const csv = buildRangeChecksCsv(await loadRangeCheckExportRows(member.organisationId, flightId));
   const stamp = new Date().toISOString().slice(0, 10);

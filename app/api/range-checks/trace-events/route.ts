@@ -5,6 +5,6 @@ import { listTraceEvents } from "@/lib/range/list-trace-events";
 
 const query = z.object({ flightId: z.string().uuid("Choose a flight from the list") });
 
-export const GET = withOrg({ permission: "workspace.read" }, async ({ req, member }) =>
+export const GET = withOrg({ permission: "range.read" }, async ({ req, member }) =>
   ok(await listTraceEvents(member.organisationId, parseQuery(req, query).flightId)),
 );

@@ -1,4 +1,4 @@
-// GET /api/share-links/options?jobId=: what can be shared from a job (recordings, findings, ready
+// GET /api/share-links/options?jobId=: what can be shared from a job (recordings, findings, approved
 // report versions), for the share form
 import { z } from "zod";
 import { withOrg, parseQuery, ok } from "@/lib/api/with-org";

@@ -1,4 +1,5 @@
 // GET/PATCH/DELETE /api/sites/:id: read, edit, archive one site (DELETE archives; nothing is erased)
+import { requireInScope } from "@/lib/auth/client-scope";
 import { withOrg, readJson, idParam, ok } from "@/lib/api/with-org";
 import { sitePatch } from "@/lib/validation/work";
 import { getSiteOrThrow, updateSite } from "@/lib/work/sites";
@@ -6,8 +7,11 @@ import { getSiteOrThrow, updateSite } from "@/lib/work/sites";
 type P = { id: string };
 const NOT_FOUND = "Site not found";
 
-export const GET = withOrg<P>({ permission: "workspace.read" }, async ({ params, member }) =>
-  ok(await getSiteOrThrow(member.organisationId, idParam(params.id, NOT_FOUND))),
+export const GET = withOrg<P>({ permission: "workspace.read" }, async ({ params, member }) => {
+  const id = idParam(params.id, NOT_FOUND);
+  await requireInScope(member, "site", id, NOT_FOUND);
+  return ok(await getSiteOrThrow(member.organisationId, id));
+}
 );
 
 export const PATCH = withOrg<P>({ permission: "sites.write" }, async ({ req, params, member }) => {

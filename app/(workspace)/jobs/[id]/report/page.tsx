@@ -1,6 +1,7 @@
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { pageMember } from "@/lib/auth/page-member";
+import { inScope } from "@/lib/auth/client-scope";
 import { can } from "@/lib/auth/permissions";
 import { loadJobHeading } from "@/lib/reports/load-job-heading";
 import { PageHeader } from "@/components/ui/page-header";
@@ -14,6 +15,7 @@ export default async function JobReportPage({ params }: { params: Promise<{ id: 
   const member = await pageMember("findings.read");
   const { id } = await params;
   if (!UUID.test(id)) notFound();
+  if (!(await inScope(member, "job", id.toLowerCase()))) notFound();
   const job = await loadJobHeading(member.organisationId, id.toLowerCase());
   if (!job) notFound();
   return (

@@ -1,4 +1,5 @@
 // GET /api/jobs/:id/hold: whether the job is under legal hold; PUT: set (with a reason) or release it
+import { requireInScope } from "@/lib/auth/client-scope";
 import { z } from "zod";
 import { plainText } from "@/lib/validation/common";
 import { withOrg, readJson, idParam, ok } from "@/lib/api/with-org";
@@ -8,8 +9,11 @@ import { getLegalHold, setLegalHold } from "@/lib/custody/set-legal-hold";
 type P = { id: string };
 const input = z.object({ hold: z.boolean(), reason: plainText(500, true).nullish() }).strict();
 
-export const GET = withOrg<P>({ permission: "workspace.read" }, async ({ params, member }) =>
-  ok(await getLegalHold(member.organisationId, idParam(params.id, "Job not found"))),
+export const GET = withOrg<P>({ permission: "workspace.read" }, async ({ params, member }) => {
+  const id = idParam(params.id, "Job not found");
+  await requireInScope(member, "job", id, "Job not found");
+  return ok(await getLegalHold(member.organisationId, id));
+}
 );
 
 export const PUT = withOrg<P>({ permission: "holds.manage" }, async ({ req, params, member }) =>

@@ -6,10 +6,14 @@ import { plainText } from "@/lib/validation/common";
 import { withOrg, readJson, idParam, ok } from "@/lib/api/with-org";
 import { requestFacts } from "@/lib/custody/record-custody-event";
 import { deleteRecording } from "@/lib/custody/delete-recording";
+import { requireInScope } from "@/lib/auth/client-scope";
 
 type P = { id: string };
 const input = z.object({ reason: plainText(500, true).nullish() }).strict();
 
-export const POST = withOrg<P>({ permission: "recordings.read" }, async ({ req, params, member }) =>
-  ok(await deleteRecording(member, idParam(params.id, "Recording not found"), await readJson(req, input), requestFacts(req))),
-);
+export const POST = withOrg<P>({ permission: "recordings.read" }, async ({ req, params, member }) => {
+  const id = idParam(params.id, "Recording not found");
+  // a client account cannot see another client's recording, so cannot ask either: 404
+  await requireInScope(member, "recording", id, "Recording not found");
+  return ok(await deleteRecording(member, id, await readJson(req, input), requestFacts(req)));
+});

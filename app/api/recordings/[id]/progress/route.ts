@@ -1,6 +1,7 @@
 // GET /api/recordings/:id/progress: processing state and percentage. JSON by default; with
 // "Accept: text/event-stream" a server-sent event stream that reports every change until the
 // recording is ready or failed (Postgres holds the progress the worker writes).
+import { requireInScope } from "@/lib/auth/client-scope";
 import { withOrg, idParam, ok } from "@/lib/api/with-org";
 import { readProcessingProgress, type ProcessingProgress } from "@/lib/media/read-processing-progress";
 import { RECORDING_NOT_FOUND } from "@/lib/media/request-reprocess";
@@ -11,6 +12,7 @@ const MAX_STREAM_MS = 10 * 60_000; // 10 min; EventSource reconnects by itself
 
 export const GET = withOrg<P>({ permission: "recordings.read" }, async ({ req, params, member }) => {
   const id = idParam(params.id, RECORDING_NOT_FOUND);
+  await requireInScope(member, "recording", id, RECORDING_NOT_FOUND);
   const first = await readProcessingProgress(member.organisationId, id);
   if (!(req.headers.get("accept") ?? "").includes("text/event-stream")) return ok(first);
 

@@ -1,4 +1,5 @@
 // GET/POST/DELETE /api/recordings/:id/tags: a recording's tags; POST { name } adds one, DELETE ?name= removes one
+import { requireInScope } from "@/lib/auth/client-scope";
 import { z } from "zod";
 import { withOrg, idParam, parseQuery, readJson, ok } from "@/lib/api/with-org";
 import { addRecordingTag, recordingTagNames, removeRecordingTag, tagInput, tagName } from "@/lib/ingest/tag-recording";
@@ -6,8 +7,10 @@ import { addRecordingTag, recordingTagNames, removeRecordingTag, tagInput, tagNa
 type P = { id: string };
 const id = (params: P) => idParam(params.id, "Recording not found");
 
-export const GET = withOrg<P>({ permission: "recordings.read" }, async ({ params, member }) =>
-  ok({ tags: await recordingTagNames(member.organisationId, id(params)) }),
+export const GET = withOrg<P>({ permission: "recordings.read" }, async ({ params, member }) => {
+  await requireInScope(member, "recording", id(params), "Recording not found");
+  return ok({ tags: await recordingTagNames(member.organisationId, id(params)) });
+}
 );
 
 export const POST = withOrg<P>({ permission: "recordings.tag" }, async ({ req, params, member }) => {
