@@ -5,7 +5,20 @@ import { formatClockTime } from "@/lib/timecode/format-clock-time";
 import type { ShareViewFinding } from "@/lib/sharing/build-share-view";
 import { SeverityStone } from "./severity-stone";
 
-export function FindingTimeline({ findings, durationSec, currentSec, onJump }: { findings: ShareViewFinding[]; durationSec: number; currentSec: number; onJump: (f: ShareViewFinding) => void }) {
+export function FindingTimeline({
+  findings,
+  durationSec,
+  currentSec,
+  onJump,
+  labelOf = (f) => formatClockTime(f.startSec),
+}: {
+  findings: ShareViewFinding[];
+  durationSec: number;
+  currentSec: number;
+  onJump: (f: ShareViewFinding) => void;
+  /** a finding's time as the page labels it (its frame time, when the frame rate is known) */
+  labelOf?: (f: ShareViewFinding) => string;
+}) {
   const pct = (s: number) => `${Math.min(100, Math.max(0, (s / durationSec) * 100))}%`;
   if (!(durationSec > 0)) return null;
   return (
@@ -19,8 +32,8 @@ export function FindingTimeline({ findings, durationSec, currentSec, onJump }: {
             onClick={() => onJump(f)}
             className="absolute top-1/2 -translate-x-1/2 -translate-y-1/2 rounded p-1 hover:bg-paper"
             style={{ left: pct(f.startSec) }}
-            aria-label={`Jump to ${f.severityLabel} finding at ${formatClockTime(f.startSec)}`}
-            title={`${f.severityLabel}${f.categoryName ? `: ${f.categoryName}` : ""} at ${formatClockTime(f.startSec)}`}
+            aria-label={`Jump to ${f.severityLabel} finding at ${labelOf(f)}`}
+            title={`${f.severityLabel}${f.categoryName ? `: ${f.categoryName}` : ""} at ${labelOf(f)}`}
           >
             <SeverityStone severity={f.severity} size={18} />
           </button>

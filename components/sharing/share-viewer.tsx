@@ -173,7 +173,7 @@ export function ShareViewer({ initialView, gatePath, manifestPath }: { initialVi
                     <span data-testid="share-current-time">{positionLabel}</span>
                     {durationSec > 0 && <span className="text-ink-2"> / {formatClockTime(durationSec)}</span>}
                   </p>
-                  <FindingTimeline findings={findingsHere} durationSec={durationSec} currentSec={current} onJump={jump} />
+                  <FindingTimeline findings={findingsHere} durationSec={durationSec} currentSec={current} onJump={jump} labelOf={findingLabel} />
                 </>
               )}
             </div>
