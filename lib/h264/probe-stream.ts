@@ -53,6 +53,8 @@ export interface StreamFacts {
   parameterSetErrors: number;
   /** Distinct SPS contents seen (more than 1 means the stream changed its parameters). */
   distinctSpsCount: number;
+  /** Picture size of every change of the active SPS's size, from present frame `fromFrame` (file order). */
+  pictureSizes: Array<{ width: number; height: number; fromFrame: number }>;
 }
 
 export interface ProbeResult {
@@ -142,6 +144,7 @@ class StreamAnalyzer {
     corruptNalUnits: 0,
     parameterSetErrors: 0,
     distinctSpsCount: 0,
+    pictureSizes: [],
   };
 
   constructor(options: SignalTraceRecorderOptions) {
@@ -329,6 +332,12 @@ class StreamAnalyzer {
 
     if (!secondField) {
       const facts = this.facts;
+      if (cur.sps) {
+        const last = facts.pictureSizes[facts.pictureSizes.length - 1];
+        if (!last || last.width !== cur.sps.width || last.height !== cur.sps.height) {
+          facts.pictureSizes.push({ width: cur.sps.width, height: cur.sps.height, fromFrame: facts.frameCount });
+        }
+      }
       if (facts.frameCount === 0) facts.startsWithIdr = cur.isIdr;
       facts.frameCount++;
       if (cur.isIdr) {

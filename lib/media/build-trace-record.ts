@@ -15,6 +15,8 @@ import type { LocatedDecoderEvents } from "@/lib/h264/ffmpeg-decode-errors";
 export type TraceSummaryRecord = StoredSummary & {
   presentFrames: number;
   lossEvents: number;
+  /** lostFrames is "at least N" (lib/h264/infer-lost-frames.ts); absent on traces made before it existed. */
+  lostIsLowerBound?: boolean;
   durationSec: number;
   longestDegradationSec: number;
   /** How far the stream parser and ffmpeg's decoder agreed; null when the decoder pass did not run. */
@@ -26,6 +28,8 @@ export interface TraceRecord {
   intervals: StoredInterval[];
   summary: TraceSummaryRecord;
   decoderErrorFrames: number[];
+  /** Per-slot states after the decoder merge (FrameState values); not stored, the figures come from it. */
+  states: Uint8Array;
 }
 
 export function buildTraceRecord(trace: SignalTrace, fps: number, decoder: LocatedDecoderEvents | null): TraceRecord {
@@ -50,10 +54,12 @@ export function buildTraceRecord(trace: SignalTrace, fps: number, decoder: Locat
       longestLossSec: s.longestLossSec,
       presentFrames: s.presentFrames,
       lossEvents: s.lossEvents,
+      lostIsLowerBound: s.lostIsLowerBound,
       durationSec: s.durationSec,
       longestDegradationSec: s.longestDegradationSec,
       decoderAgreement: agreement,
     },
     decoderErrorFrames: decoder?.damagedFrames ?? [],
+    states: merged.states,
   };
 }

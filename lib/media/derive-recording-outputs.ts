@@ -3,11 +3,12 @@
 // trace. No database and no queue here: the worker commits the result; the benchmark runs it bare.
 // The original is only ever opened for reading.
 import { createReadStream } from "node:fs";
-import { stat } from "node:fs/promises";
+import { rm, stat, writeFile } from "node:fs/promises";
 import path from "node:path";
 import type { ProbeFacts } from "@/db/schema/media";
 import { probeStream, type ProbeResult, type StreamFacts } from "@/lib/h264/probe-stream";
-import { findFrameAtOffset, presentFrameSlots, type SignalTrace } from "@/lib/h264/signal-trace";
+import { FrameState, findFrameAtOffset, presentFrameSlots, type SignalTrace } from "@/lib/h264/signal-trace";
+import { frameRateFromFps } from "@/lib/findings/recording-frame-rate";
 import { locateDecoderEvents } from "@/lib/h264/ffmpeg-decode-errors";
 import { sha256OfStream } from "@/lib/custody/sha256-stream";
 import { readFileHead } from "@/lib/ingest/read-file-head";
@@ -21,9 +22,13 @@ import { makeThumbnailTrack, SPRITE_FILE, THUMBNAILS_FILE } from "./make-thumbna
 import { planContainerPlayable, planRawPlayable, type PlayablePlan } from "./plan-playable";
 import { readContainerFacts, type ContainerFacts } from "./read-container-facts";
 import { readJpegSize } from "./read-jpeg-size";
+import { planTimedReencode } from "./plan-timed-reencode";
+import { computeRecordingFigures, type RecordingFigures } from "./recording-figures";
 import { RecordingRefused, refusalFromToolError } from "./recording-refused";
 
 export const PLAYABLE_FILE = "playable.mp4";
+const STAMPED_FILE = "stamped.nut";
+const TIMESTAMPS_SCRIPT = "timestamps.filter";
 
 export type RenditionKind = "playable" | "poster" | "sprite" | "thumbnails_vtt";
 
@@ -42,7 +47,7 @@ export type RecordingFacts = ProbeFacts & {
   startsWithIdr?: boolean;
   /** Stream frame index where the playable starts (frames before the first IDR are left out). */
   playableFirstFrame?: number;
-  playableMode?: PlayablePlan["mode"];
+  playableMode?: PlayablePlan["mode"] | "reencode";
   playableNote?: string;
   audioCodec?: string | null;
   /** Why a signal trace is not computed for this recording, when it is not. */
@@ -63,7 +68,10 @@ export interface DerivedOutput {
 
 export interface DeriveResult {
   facts: RecordingFacts;
+  /** figures.durationSeconds when there are figures. */
   durationSec: number | null;
+  /** The one set of figures (null for stills). */
+  figures: RecordingFigures | null;
   outputs: DerivedOutput[];
   trace: TraceRecord | null;
 }
@@ -187,41 +195,109 @@ async function deriveFromRawH264Linked(input: DeriveInput, size: number, report:
   scanned.catch(() => {});
   decoded.catch(() => {});
 
-  let playableArgs: string[];
-  // From the first IDR on, fed through stdin: no copy of a multi-gigabyte original.
-  const cutStream = plan.startOffset > 0 ? createReadStream(input.originalPath, { start: plan.startOffset, highWaterMark: 1 << 20 }) : null;
+  let playableArgs: string[] = [];
   // Frames expected, for ffmpeg's progress: the head's bytes per frame over the whole file.
   const expectedFrames = head.facts.frameCount > 0 && head.facts.byteLength > 0 ? (head.facts.frameCount * size) / head.facts.byteLength : 0;
-  try {
-    const run = await runFfmpeg({
-      label: "playable",
-      input: {
-        source: cutStream ?? input.originalPath,
-        name: plan.startOffset > 0 ? `original@${plan.startOffset}` : "original",
-        options: plan.inputOptions,
-      },
-      output: { path: playablePath, name: PLAYABLE_FILE, options: plan.outputOptions },
-      signal,
-      expectedDurationSec: expectedFrames > 0 ? expectedFrames / rate.fps : undefined,
-      onProgress: part("playable", "making the playable video"),
-    });
-    playableArgs = run.args;
-  } catch (err) {
-    throw asRefusal(err);
-  } finally {
-    // ffmpeg may stop reading early (failure, cancel): the file must not stay open.
-    cutStream?.destroy();
+  const copy = async (): Promise<{ error: unknown } | null> => {
+    // From the first IDR on, fed through stdin: no copy of a multi-gigabyte original.
+    const cutStream = plan.startOffset > 0 ? createReadStream(input.originalPath, { start: plan.startOffset, highWaterMark: 1 << 20 }) : null;
+    try {
+      const run = await runFfmpeg({
+        label: "playable",
+        input: {
+          source: cutStream ?? input.originalPath,
+          name: plan.startOffset > 0 ? `original@${plan.startOffset}` : "original",
+          options: plan.inputOptions,
+        },
+        output: { path: playablePath, name: PLAYABLE_FILE, options: plan.outputOptions },
+        signal,
+        expectedDurationSec: expectedFrames > 0 ? expectedFrames / rate.fps : undefined,
+        onProgress: part("playable", "making the playable video"),
+      });
+      playableArgs = run.args;
+      return null;
+    } catch (err) {
+      if (err instanceof MediaToolError && err.aborted) throw err;
+      return { error: err };
+    } finally {
+      // ffmpeg may stop reading early (failure, cancel): the file must not stay open.
+      cutStream?.destroy();
+    }
+  };
+  // A head without damage: the copy starts alongside the whole-file scan (the common, clean case).
+  const headClean = plan.startOffset === 0 && head.facts.startsWithIdr && head.trace.states.every((st) => st === FrameState.Intact);
+  const copying = headClean ? copy() : null;
+  copying?.catch(() => {});
+
+  const probe = await scanned;
+  const s = probe.facts;
+  refuseUnusable(s);
+  const frameRate = frameRateFromFps(rate.fps);
+  // Damage seen by the stream scan (lost or damaged slots, frames before the first IDR, a change of
+  // parameters) or by the decoder: the copy would carry it to the browser, so the playable is
+  // decoded and re-encoded on the recorder's clock instead (plan-timed-reencode.ts).
+  const scanFoundDamage = probe.trace.states.some((st) => st !== FrameState.Intact) || plan.startOffset > 0 || s.distinctSpsCount > 1;
+  const made: { mode: NonNullable<RecordingFacts["playableMode"]>; note: string } = { mode: plan.mode, note: plan.reason };
+  const reencode = async () => {
+    const scriptPath = path.join(workDir, TIMESTAMPS_SCRIPT);
+    const stampedPath = path.join(workDir, STAMPED_FILE);
+    const timed = planTimedReencode(
+      { presentSlots: presentFrameSlots(probe.trace), frameSlots: probe.trace.length, rate: frameRate, width: s.width, height: s.height },
+      scriptPath,
+    );
+    try {
+      await writeFile(scriptPath, timed.filterScript);
+      const stamp = await runFfmpeg({
+        label: "timestamps",
+        input: { source: input.originalPath, name: "original", options: timed.stamp.inputOptions },
+        output: { path: stampedPath, name: STAMPED_FILE, options: timed.stamp.outputOptions },
+        signal,
+      });
+      const run = await runFfmpeg({
+        label: "playable",
+        input: { source: stampedPath, name: STAMPED_FILE, options: timed.inputOptions },
+        output: { path: playablePath, name: PLAYABLE_FILE, options: timed.outputOptions },
+        signal,
+        expectedDurationSec: probe.trace.length / rate.fps,
+        onProgress: part("playable", "re-encoding the damaged video"),
+      });
+      playableArgs = [...stamp.args, "&&", "ffmpeg", ...run.args, `(${TIMESTAMPS_SCRIPT}: ${timed.filterScript})`];
+    } catch (err) {
+      throw asRefusal(err);
+    } finally {
+      // work files, not outputs: the worker moves the whole folder into place
+      await rm(stampedPath, { force: true });
+      await rm(scriptPath, { force: true });
+    }
+    made.mode = "reencode";
+    made.note = "decoded and re-encoded with libx264 because the stream is damaged; lost frames hold the frame before them, so times match the recorder's";
+  };
+  // The copy must be done with the file before a re-encode writes it.
+  let copyFailed = copying ? (await copying) !== null : false;
+  let located: ReturnType<typeof locateDecoderEvents>;
+  if (scanFoundDamage) {
+    // The decoder pass runs alongside the re-encode.
+    await reencode();
+    located = locateDecoderEvents(await decoded, probe.trace);
+  } else {
+    if (!copying) copyFailed = (await copy()) !== null;
+    located = locateDecoderEvents(await decoded, probe.trace);
+    // Damage only the decoder sees (inside slice data), or a copy ffmpeg could not finish.
+    if (copyFailed || located.damagedFrames.length > 0 || located.gapFrames.length > 0) await reencode();
   }
 
   const playable = await readContainerFacts(playablePath, signal);
   const frameCount = playable.video?.frameCount ?? 0;
   if (!playable.video || frameCount === 0) throw new RecordingRefused("ffmpeg could not make a playable video from this stream: no frame survived");
-  const durationSec = frameCount / rate.fps;
-
-  const probe = await scanned;
-  const s = probe.facts;
-  refuseUnusable(s);
-  const trace = buildTraceRecord(probe.trace, rate.fps, locateDecoderEvents(await decoded, probe.trace));
+  const trace = buildTraceRecord(probe.trace, rate.fps, located);
+  const figures = computeRecordingFigures({
+    frameRate,
+    states: trace.states,
+    framesLostIsLowerBound: probe.trace.lostIsLowerBound,
+    rendition: made.mode === "reencode" ? "reencode" : made.mode === "transcode" ? "transcode" : "copy",
+    pictureSizes: pictureSizesInSlots(s.pictureSizes, probe.trace),
+  });
+  const durationSec = figures.durationSeconds;
 
   const common = await deriveStillsAndThumbnails({
     playablePath,
@@ -248,7 +324,7 @@ async function deriveFromRawH264Linked(input: DeriveInput, size: number, report:
     entropyCoding: s.entropyCoding,
     chromaFormat: s.chromaFormatIdc === null ? null : (CHROMA[s.chromaFormatIdc] ?? null),
     bitDepth: s.bitDepthLuma,
-    frameCount,
+    frameCount: figures.frameSlots,
     durationSec,
     bitrate: Math.round((size * 8) / (s.frameCount / rate.fps)),
     fps: rate.fps,
@@ -256,9 +332,10 @@ async function deriveFromRawH264Linked(input: DeriveInput, size: number, report:
     streamFrameCount: s.frameCount,
     idrCount: s.idrCount,
     startsWithIdr: s.startsWithIdr,
-    playableFirstFrame: framesBefore(probe.trace, plan.startOffset),
-    playableMode: plan.mode,
-    playableNote: plan.reason,
+    // The re-encoded playable starts at slot 0 (the first picture held until the first IDR).
+    playableFirstFrame: made.mode === "reencode" ? 0 : framesBefore(probe.trace, plan.startOffset),
+    playableMode: made.mode,
+    playableNote: made.note,
   };
   const outputs = await hashOutputs(
     [
@@ -268,7 +345,13 @@ async function deriveFromRawH264Linked(input: DeriveInput, size: number, report:
     workDir,
     part("seal", "sealing the outputs"),
   );
-  return { facts, durationSec, outputs, trace };
+  return { facts, durationSec, figures, outputs, trace };
+}
+
+/** Picture sizes per SPS change, from present-frame indexes to recorder slots. */
+function pictureSizesInSlots(sizes: StreamFacts["pictureSizes"], trace: SignalTrace): RecordingFigures["pictureSizes"] {
+  const slots = presentFrameSlots(trace);
+  return sizes.map((z) => ({ width: z.width, height: z.height, fromSlot: slots[Math.min(z.fromFrame, slots.length - 1)] ?? 0 }));
 }
 
 /** Frames present in the stream before byte `offset` (where the playable starts). */
@@ -346,7 +429,16 @@ async function deriveFromContainer(input: DeriveInput, kind: MediaKind, report: 
     workDir,
     span(report, 93, 99, "sealing the outputs"),
   );
-  return { facts, durationSec, outputs, trace: null };
+  const fps = source.video.fps && source.video.fps > 0 ? source.video.fps : playable.video.frameCount / durationSec;
+  const figures = computeRecordingFigures({
+    frameRate: frameRateFromFps(fps),
+    states: null,
+    frameCount: playable.video.frameCount,
+    durationSeconds: durationSec,
+    rendition: plan.mode === "remux" ? "copy" : "transcode",
+    pictureSizes: [{ width: source.video.width, height: source.video.height, fromSlot: 0 }],
+  });
+  return { facts, durationSec, figures, outputs, trace: null };
 }
 
 async function deriveFromStill(input: DeriveInput, report: Progress): Promise<DeriveResult> {
@@ -379,6 +471,7 @@ async function deriveFromStill(input: DeriveInput, report: Progress): Promise<De
       traceNotApplicable: "A still image has no signal trace.",
     },
     durationSec: null,
+    figures: null,
     outputs,
     trace: null,
   };

@@ -11,7 +11,10 @@ export interface PlayableInterval extends TraceInterval {
   playableEndSec: number;
 }
 
-export function mapTraceToPlayable(intervals: readonly TraceInterval[], fps: number, playableFirstFrame = 0): PlayableInterval[] {
+export function mapTraceToPlayable(intervals: readonly TraceInterval[], fps: number, playableFirstFrame = 0, sameClock = false): PlayableInterval[] {
+  // Renditions re-encoded on the recorder's clock (plan-timed-reencode.ts), and clean copies (no
+  // loss, nothing cut), play slot k at k / fps: the two clocks are one.
+  if (sameClock) return intervals.map((iv) => ({ ...iv, frames: iv.endFrame - iv.startFrame, playableStartSec: iv.startSec, playableEndSec: iv.endSec }));
   let present = 0;
   const at = (presentFrames: number) => Math.max(0, presentFrames - playableFirstFrame) / fps;
   return intervals.map((iv) => {

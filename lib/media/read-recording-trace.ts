@@ -8,6 +8,7 @@ import type { RecordingFacts } from "./derive-recording-outputs";
 import { mapTraceToPlayable, type PlayableInterval } from "./map-trace-to-playable";
 import type { TraceSummaryRecord } from "./build-trace-record";
 import { RECORDING_NOT_FOUND } from "./request-reprocess";
+import { readRecordingFigures, type RecordingFigures } from "./recording-figures";
 
 export type RecordingTraceView =
   | {
@@ -18,12 +19,14 @@ export type RecordingTraceView =
       intervals: PlayableInterval[];
       summary: TraceSummaryRecord;
       decoderErrorFrameCount: number;
+      /** The stored figures (recordings.figures); null for recordings processed before they existed. */
+      figures: RecordingFigures | null;
     }
   | { recordingId: string; applicable: false; reason: string; state: string };
 
 export async function readRecordingTrace(organisationId: string, recordingId: string): Promise<RecordingTraceView> {
   const [row] = await db()
-    .select({ id: recordings.id, state: recordings.state, facts: recordings.facts })
+    .select({ id: recordings.id, state: recordings.state, facts: recordings.facts, figures: recordings.figures })
     .from(recordings)
     .where(and(eq(recordings.id, recordingId), eq(recordings.organisationId, organisationId), isNull(recordings.deletedAt)));
   if (!row) throw new ApiError("not_found", RECORDING_NOT_FOUND);
@@ -42,13 +45,17 @@ export async function readRecordingTrace(organisationId: string, recordingId: st
     return { recordingId, applicable: false, reason, state: row.state };
   }
   const playableFirstFrame = facts?.playableFirstFrame ?? 0;
+  const figures = readRecordingFigures(row);
+  const summary = trace.summary as TraceSummaryRecord;
+  const sameClock = facts?.playableMode === "reencode" || (summary.lostFrames === 0 && playableFirstFrame === 0);
   return {
     recordingId,
     applicable: true,
     fps: trace.fps,
     playableFirstFrame,
-    intervals: mapTraceToPlayable(trace.intervals, trace.fps, playableFirstFrame),
-    summary: trace.summary as TraceSummaryRecord,
+    intervals: mapTraceToPlayable(trace.intervals, trace.fps, playableFirstFrame, sameClock),
+    summary,
     decoderErrorFrameCount: trace.decoderErrorFrames?.length ?? 0,
+    figures,
   };
 }

@@ -118,6 +118,8 @@ export interface FiguresInput {
   states: ArrayLike<number> | null;
   /** For files without a trace: frames in the rendition. */
   frameCount?: number;
+  /** For files without a trace: the rendition's duration when it is not frames / rate (variable rate). */
+  durationSeconds?: number;
   lossEvents?: number;
   framesLostIsLowerBound?: boolean;
   rendition: RecordingFigures["rendition"];
@@ -145,7 +147,7 @@ export function computeRecordingFigures(input: FiguresInput): RecordingFigures {
       framesLost: 0,
       framesLostIsLowerBound: false,
       lossEvents: 0,
-      durationSeconds: sec(n),
+      durationSeconds: input.durationSeconds ?? sec(n),
       intactShare: null,
       firstDegradationSeconds: null,
       firstDegradationSlot: null,

@@ -179,6 +179,8 @@ async function commitResult(job: Job<Payload>, rec: LoadedRecording, result: Der
         progress: 100,
         failureReason: null,
         facts: result.facts,
+        // one set of figures, computed once here; durationSec is figures.durationSeconds (kept for sorting)
+        figures: result.figures,
         durationSec: result.durationSec,
         processedAt: now,
         updatedAt: now,
@@ -205,6 +207,9 @@ async function commitResult(job: Job<Payload>, rec: LoadedRecording, result: Der
           fps: result.facts.fps ?? null,
           fpsSource: result.facts.fpsSource ?? null,
           playableMode: result.facts.playableMode ?? null,
+          frameSlots: result.figures?.frameSlots ?? null,
+          framesLost: result.figures?.framesLost ?? null,
+          framesLostIsLowerBound: result.figures?.framesLostIsLowerBound ?? null,
           outputs: written.length,
         },
       },

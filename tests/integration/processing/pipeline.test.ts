@@ -252,7 +252,7 @@ describe("a 1920x1080 stream (coded as 1920x1088, cropped by the SPS)", () => {
 });
 
 describe("a stream that starts mid-GOP", () => {
-  it("is cut at its first IDR picture; the trace still covers the whole file", async () => {
+  it("is re-encoded on the recorder's clock: one MP4 frame per frame slot, the first picture held until the first IDR", async () => {
     // The recorder started writing at the 6th frame of a GOP of 30: 25 P frames before the next IDR.
     const whole = await probeH264File(controllerStream);
     const offsets = whole.trace.offsets;
@@ -263,11 +263,15 @@ describe("a stream that starts mid-GOP", () => {
     const rec = await processNow(file);
     const [row] = await db().select().from(recordings).where(eq(recordings.id, rec.id));
     expect(row.failureReason).toBeNull();
-    expect(row.facts).toMatchObject({ startsWithIdr: false, playableFirstFrame: 25, streamFrameCount: whole.facts.frameCount - 5 });
+    // Frames before the first IDR cannot be decoded exactly: the stream counts as damaged and is
+    // re-encoded so that the MP4's time of frame slot k is k / fps, as on the recorder.
+    expect(row.facts).toMatchObject({ startsWithIdr: false, playableFirstFrame: 0, playableMode: "reencode", streamFrameCount: whole.facts.frameCount - 5 });
     const mp4 = await readMp4(storePath((await renditionsOf(rec.id)).playable.storageKey));
-    // ffprobe on the cut source decodes from the first IDR too: the frames it can count are the MP4's samples.
-    expect(mp4.videoTracks[0].samples).toBe(whole.facts.frameCount - 30);
-    expect(mp4.videoTracks[0].samples).toBe(await ffprobeFrameCount(file, true));
+    // ffprobe on the cut source decodes from the first IDR: 25 frames fewer than the MP4, which holds
+    // the first IDR picture over those 25 slots.
+    expect(mp4.videoTracks[0].samples).toBe(whole.facts.frameCount - 5);
+    expect(mp4.videoTracks[0].samples).toBe((await ffprobeFrameCount(file, true)) + 25);
+    expect(row.figures).toMatchObject({ frameSlots: whole.facts.frameCount - 5, framesLost: 0, rendition: "reencode" });
     const [trace] = await db().select().from(signalTraces).where(eq(signalTraces.recordingId, rec.id));
     // Frames before the first IDR cannot be decoded exactly: damaged, then intact from the IDR on.
     expect(trace.intervals[0]).toMatchObject({ state: "damaged", startFrame: 0, endFrame: 25 });
@@ -298,7 +302,10 @@ describe("a stream with lost frames", () => {
     expect(summary.decoderAgreement?.decoderGaps).toBe(1);
     const [row] = await db().select().from(recordings).where(eq(recordings.id, rec.id));
     expect(row.state).toBe("ready");
-    expect(row.facts!.frameCount).toBe(whole.facts.frameCount - 3);
+    // Frame slots: the 3 lost frames keep their place (the clean source's frame count).
+    expect(row.facts!.frameCount).toBe(whole.facts.frameCount);
+    expect(row.figures).toMatchObject({ frameSlots: whole.facts.frameCount, framesLost: 3, framesLostIsLowerBound: false, rendition: "reencode" });
+    expect(row.durationSec).toBe(whole.facts.frameCount / 30);
   });
 });
 

@@ -111,3 +111,53 @@ export async function makeRawH264(options: MakeH264Options = {}): Promise<string
   await rename(partial, out);
   return out;
 }
+
+export interface CounterStreamOptions {
+  width?: number;
+  height?: number;
+  fps?: number;
+  seconds?: number;
+  /** Fixed IDR period in frames: x264 -g = -keyint_min, no scene-cut IDRs. */
+  gop?: number;
+  /** Target bitrate in kbit/s. */
+  bitrate?: number;
+  dir?: string;
+}
+
+/**
+ * A controller-like stream: testsrc2 with the 0-based frame number burned in (drawtext, DejaVu Sans),
+ * Constrained Baseline, no B-frames, an IDR exactly every `gop` frames. The frame counter lets a test
+ * tell which recorder frame a picture of the rendition is.
+ */
+export async function makeCounterStream(options: CounterStreamOptions = {}): Promise<string> {
+  const o = {
+    width: options.width ?? 432,
+    height: options.height ?? 240,
+    fps: options.fps ?? 30,
+    seconds: options.seconds ?? 12,
+    gop: options.gop ?? 30,
+    bitrate: options.bitrate ?? 500,
+  };
+  const dir = options.dir ?? MEDIA_CACHE_DIR;
+  await mkdir(dir, { recursive: true });
+  const key = createHash("sha256").update(JSON.stringify(o)).digest("hex").slice(0, 16);
+  const out = path.join(dir, `counter-gop${o.gop}-${o.width}x${o.height}-${key}.264`);
+  try {
+    if ((await stat(out)).size > 0) return out;
+  } catch {
+    // not made yet
+  }
+  const partial = `${out}.${process.pid}.part`;
+  await runTool("ffmpeg", [
+    "-v", "error", "-y",
+    "-f", "lavfi", "-i", `testsrc2=size=${o.width}x${o.height}:rate=${o.fps}`,
+    "-t", String(o.seconds),
+    "-vf", `drawtext=fontfile=/usr/share/fonts/truetype/dejavu/DejaVuSans.ttf:text=%{frame_num}:fontsize=${Math.round(o.height / 3)}:x=8:y=8:fontcolor=white:box=1:boxcolor=black,format=yuv420p`,
+    "-c:v", "libx264", "-profile:v", "baseline", "-preset", "veryfast",
+    "-b:v", `${o.bitrate}k`,
+    "-g", String(o.gop), "-keyint_min", String(o.gop), "-sc_threshold", "0", "-bf", "0",
+    "-f", "h264", partial,
+  ]);
+  await rename(partial, out);
+  return out;
+}
