@@ -16,6 +16,7 @@ import { ROLE_LABELS } from "@/lib/auth/permissions";
 import { ROLES, inviteInput } from "@/lib/validation/members";
 import type { Role } from "@/db/schema/types";
 import { useSave } from "./use-save";
+import { ClientChoices, ClientTies } from "./client-ties";
 
 type MemberRow = { userId: string; name: string; email: string; role: Role; joinedAt: string };
 type InvitationRow = { id: string; email: string; role: Role; invitedByName: string | null; expiresAt: string; createdAt: string; state: "pending" | "expired" };
@@ -37,6 +38,12 @@ export function MembersView({ me, mailboxHref }: { me: string; mailboxHref?: str
     },
     { id: "email", header: "E-mail", enableSorting: false, cell: (c) => c.row.original.email },
     { id: "role", header: "Role", enableSorting: false, cell: (c) => <RoleSelect row={c.row.original} onNotice={setNotice} /> },
+    {
+      id: "sees",
+      header: "Sees",
+      enableSorting: false,
+      cell: (c) => (c.row.original.role === "client" ? <ClientTies userId={c.row.original.userId} name={c.row.original.name} onNotice={setNotice} /> : <span className="text-sm text-ink-2">The whole organisation</span>),
+    },
     { id: "joinedAt", header: "Joined", enableSorting: false, cell: (c) => <span className="font-mono text-xs">{c.row.original.joinedAt.slice(0, 10)}</span> },
     { id: "actions", header: () => <span className="sr-only">Actions</span>, enableSorting: false, cell: (c) => (c.row.original.userId === me ? null : <RemoveMember row={c.row.original} onNotice={setNotice} />) },
   ];
@@ -156,10 +163,11 @@ function InviteForm({ onNotice }: { onNotice: (n: Notice) => void }) {
     setError: form.setError,
     onDone: (r) => {
       onNotice({ kind: "ok", text: `Invitation sent to ${r.email}. The link works once, until ${r.expiresAt.slice(0, 10)}.` });
-      form.reset({ email: "", role: form.getValues("role") });
+      form.reset({ email: "", role: form.getValues("role"), clientIds: [] });
     },
   });
   const role = useWatch({ control: form.control, name: "role" }) as Role;
+  const clientIds = (useWatch({ control: form.control, name: "clientIds" }) as string[] | undefined) ?? [];
   const e = form.formState.errors;
   return (
     <section aria-labelledby="invite-title" className="rounded-lg border border-line p-4">
@@ -178,6 +186,9 @@ function InviteForm({ onNotice }: { onNotice: (n: Notice) => void }) {
           </SelectField>
           {role && ROLE_LABELS[role] && <p className="text-xs text-ink-2">{ROLE_LABELS[role].meaning}</p>}
         </div>
+        {role === "client" && (
+          <ClientChoices legend="Clients this account sees" value={clientIds} onChange={(ids) => form.setValue("clientIds", ids)} error={e.clientIds?.message} />
+        )}
         <FormError error={save.error && !(save.error as { fields?: unknown }).fields ? save.error : null} />
         <Button type="submit" busy={save.isPending}>
           Send invitation

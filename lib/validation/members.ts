@@ -13,7 +13,10 @@ export const password = z
   .refine((p) => new TextEncoder().encode(p).length <= PASSWORD_MAX_BYTES, `At most ${PASSWORD_MAX_BYTES} bytes (about 72 plain letters)`);
 
 const email = z.string().trim().toLowerCase().email("Not an e-mail address").max(320, "At most 320 characters");
-export const inviteInput = z.object({ email, role: z.enum(ROLES, { message: "Choose a role" }) });
+/** A client account's clients: the organisation's clients whose work it may see. */
+export const clientIdList = z.array(z.string().uuid("Unknown client")).max(100, "At most 100 clients");
+export const inviteInput = z.object({ email, role: z.enum(ROLES, { message: "Choose a role" }), clientIds: clientIdList.optional() });
+export const memberClientsInput = z.object({ clientIds: clientIdList }).strict();
 export const roleChangeInput = z.object({ role: z.enum(ROLES, { message: "Choose a role" }) }).strict();
 
 export const invitationToken = z.string().regex(INVITATION_TOKEN_PATTERN, "This invitation link is not valid");

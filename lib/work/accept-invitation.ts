@@ -8,6 +8,7 @@ import { hashPassword } from "@/lib/auth/password";
 import type { AcceptInviteInput } from "@/lib/validation/members";
 import { hashInvitationToken } from "./invitation-token";
 import { invitationState } from "./invitations";
+import { tieInvitedClients } from "./member-clients";
 
 export async function acceptInvitation(input: AcceptInviteInput) {
   const tokenHash = hashInvitationToken(input.token);
@@ -18,6 +19,7 @@ export async function acceptInvitation(input: AcceptInviteInput) {
         organisationId: invitations.organisationId,
         email: invitations.email,
         role: invitations.role,
+        clientIds: invitations.clientIds,
         expiresAt: invitations.expiresAt,
         acceptedAt: invitations.acceptedAt,
         revoked: invitations.revoked,
@@ -48,7 +50,12 @@ export async function acceptInvitation(input: AcceptInviteInput) {
         .returning({ id: users.id });
       if (!user) throw new ApiError("conflict", "An account with this address was created meanwhile; open the link again.");
     }
-    await tx.insert(memberships).values({ organisationId: inv.organisationId, userId: user.id, role: inv.role }).onConflictDoNothing();
+    const [membership] = await tx
+      .insert(memberships)
+      .values({ organisationId: inv.organisationId, userId: user.id, role: inv.role })
+      .onConflictDoNothing()
+      .returning({ id: memberships.id });
+    if (membership && inv.role === "client") await tieInvitedClients(tx, inv.organisationId, membership.id, inv.clientIds);
     await tx.update(invitations).set({ acceptedAt: new Date(), updatedAt: new Date() }).where(eq(invitations.id, inv.id));
     // any other open invitation to the same address is now pointless
     await tx

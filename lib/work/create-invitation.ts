@@ -10,6 +10,7 @@ import { env } from "@/lib/config/env";
 import { composeMail, sendMail } from "@/lib/mail/send-mail";
 import type { InviteInput } from "@/lib/validation/members";
 import { INVITATION_LIFETIME_MS, hashInvitationToken, newInvitationToken } from "./invitation-token";
+import { clientsOfOrganisation } from "./member-clients";
 
 export function invitationUrl(token: string): string {
   return `${env().APP_URL.replace(/\/$/, "")}/invite/${token}`;
@@ -26,13 +27,15 @@ export async function createInvitation(inviter: Pick<Member, "organisationId" | 
       .innerJoin(users, eq(users.id, memberships.userId))
       .where(and(eq(memberships.organisationId, orgId), eq(users.email, input.email)));
     if (existing) throw new ApiError("conflict", "This person is already a member; change their role instead.", { email: ["Already a member of this organisation"] });
+    // a client account is tied to the clients whose work it will see; the crew never is
+    const clientIds = input.role === "client" ? await clientsOfOrganisation(tx, orgId, input.clientIds ?? []) : [];
     await tx
       .update(invitations)
       .set({ revoked: true, updatedAt: new Date() })
       .where(and(eq(invitations.organisationId, orgId), eq(invitations.email, input.email), isNull(invitations.acceptedAt), eq(invitations.revoked, false)));
     const [row] = await tx
       .insert(invitations)
-      .values({ organisationId: orgId, email: input.email, role: input.role, tokenHash: hashInvitationToken(token), invitedBy: inviter.userId, expiresAt })
+      .values({ organisationId: orgId, email: input.email, role: input.role, clientIds, tokenHash: hashInvitationToken(token), invitedBy: inviter.userId, expiresAt })
       .returning({ id: invitations.id, email: invitations.email, role: invitations.role, expiresAt: invitations.expiresAt, createdAt: invitations.createdAt });
     const role = ROLE_LABELS[input.role];
     const body = composeMail(
