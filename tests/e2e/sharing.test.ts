@@ -173,7 +173,10 @@ describe("sharing a finding's clip with a client", () => {
     // leaving the page ends the view, and the analytics SDK sends what it has queued
     await clientPage.goto("about:blank");
     const [link] = await db().select({ id: s.shareLinks.id }).from(s.shareLinks).where(eq(s.shareLinks.tokenHash, hashShareToken(shareUrl.split("/").pop()!)));
-    await expect.poll(async () => db().$count(s.playbackViews, eq(s.playbackViews.shareLinkId, link.id)), { timeout: 30_000, interval: 1000 }).toBeGreaterThan(0);
+    // the SDK's beacons arrive in more than one request: wait until the watch time has arrived too
+    await expect
+      .poll(async () => (await db().select({ w: s.playbackViews.watchTimeMs }).from(s.playbackViews).where(eq(s.playbackViews.shareLinkId, link.id)))[0]?.w ?? -1, { timeout: 30_000, interval: 500 })
+      .toBeGreaterThan(0);
     const [view] = await db().select().from(s.playbackViews).where(eq(s.playbackViews.shareLinkId, link.id));
     expect(view.viewerUserId).toBeNull();
     expect(view.watchTimeMs).toBeGreaterThan(0);
