@@ -6,6 +6,11 @@
 // closed it, so the next file started at (its close time - its length), and the gap is that start
 // minus the previous close time. Without both times, or when they contradict each other by more than
 // the tolerance (recorder clocks are often unset), the gap is shown with its length unknown.
+//
+// A gap longer than the tolerance is an outage: the recorder stopped (typically the link was lost and
+// the controller closed the file) and started a new file. The flight's summary counts it as loss,
+// with its length marked as estimated. The files' own figures are the stored ones
+// (lib/media/recording-figures.ts), never recomputed here.
 import { flightOrder, type FlightFile } from "./order-flight-files";
 
 export interface TimelineFileInput extends FlightFile {
@@ -18,6 +23,9 @@ export interface TimelineFileInput extends FlightFile {
     intactShare: number;
     firstDegradationSec: number | null;
     longestLossSec: number;
+    /** Lost frame slots in the file, and whether that count is "at least". */
+    lostFrames?: number;
+    lostIsLowerBound?: boolean;
   } | null;
 }
 
@@ -50,10 +58,21 @@ export interface FlightTimelineSummary {
   recordedSec: number;
   /** First file start to last file end, when every length and gap is known. */
   spanSec: number | null;
-  /** Intact frame slots / all frame slots over the traced files; null without any trace. */
+  /** Intact time / all time over the traced files and the outages between them; null without any trace. */
   intactShare: number | null;
-  firstDegradation: { recordingId: string; index: number; atSec: number; flightSec: number | null } | null;
+  /** The earliest trouble: inside a file, or an outage between files (at the end of the file before it). */
+  firstDegradation: { recordingId: string; index: number; atSec: number; flightSec: number | null; between: boolean } | null;
+  /** Longest loss, inside a file or between files. */
   longestLossSec: number;
+  /** The longest loss is an outage between files: its length is estimated from file times. */
+  longestLossEstimated: boolean;
+  /** Lost frame slots inside the files. */
+  lostFrames: number;
+  /** Some file's lost count is "at least", so the flight's is too. */
+  lostIsLowerBound: boolean;
+  /** Seconds lost between files (outages), estimated from the recorder's file times. */
+  outageSec: number;
+  outages: number;
   longestGapSec: number | null;
   unknownGaps: number;
 }
@@ -87,9 +106,15 @@ export function buildFlightTimeline(files: readonly TimelineFileInput[]): Flight
   const gaps: TimelineGap[] = [];
   let cursor: number | null = 0;
   let slots = 0;
-  let intact = 0;
   let firstDegradation: FlightTimelineSummary["firstDegradation"] = null;
   let longestLossSec = 0;
+  let longestLossEstimated = false;
+  let lostFrames = 0;
+  let lostIsLowerBound = false;
+  let outageSec = 0;
+  let outages = 0;
+  let tracedSec = 0;
+  let intactSec = 0;
   let longestGapSec: number | null = null;
   let unknownGaps = 0;
   let recordedSec = 0;
@@ -103,6 +128,20 @@ export function buildFlightTimeline(files: readonly TimelineFileInput[]): Flight
         cursor = null;
       } else {
         longestGapSec = Math.max(longestGapSec ?? 0, g.seconds);
+        if (g.seconds > GAP_TOLERANCE_SEC) {
+          // an outage: the video was lost between the two files
+          outages++;
+          outageSec += g.seconds;
+          if (ordered[index - 1].trace && f.trace) tracedSec += g.seconds;
+          if (g.seconds > longestLossSec) {
+            longestLossSec = g.seconds;
+            longestLossEstimated = true;
+          }
+          if (!firstDegradation) {
+            const prev = ordered[index - 1];
+            firstDegradation = { recordingId: prev.id, index: index - 1, atSec: lengthOf(prev) ?? 0, flightSec: cursor, between: true };
+          }
+        }
         if (cursor !== null) cursor += g.seconds;
       }
     }
@@ -119,14 +158,21 @@ export function buildFlightTimeline(files: readonly TimelineFileInput[]): Flight
     });
     if (f.trace) {
       slots += f.trace.frameCount;
-      intact += f.trace.intactFrames;
-      longestLossSec = Math.max(longestLossSec, f.trace.longestLossSec);
+      tracedSec += f.trace.durationSec;
+      intactSec += f.trace.frameCount > 0 ? (f.trace.intactFrames / f.trace.frameCount) * f.trace.durationSec : 0;
+      lostFrames += f.trace.lostFrames ?? 0;
+      if (f.trace.lostIsLowerBound) lostIsLowerBound = true;
+      if (f.trace.longestLossSec > longestLossSec) {
+        longestLossSec = f.trace.longestLossSec;
+        longestLossEstimated = false;
+      }
       if (!firstDegradation && f.trace.firstDegradationSec !== null) {
         firstDegradation = {
           recordingId: f.id,
           index,
           atSec: f.trace.firstDegradationSec,
           flightSec: cursor === null ? null : cursor + f.trace.firstDegradationSec,
+          between: false,
         };
       }
     }
@@ -143,9 +189,14 @@ export function buildFlightTimeline(files: readonly TimelineFileInput[]): Flight
       tracedFiles: ordered.filter((f) => f.trace).length,
       recordedSec,
       spanSec: ordered.length > 0 ? cursor : 0,
-      intactShare: slots > 0 ? intact / slots : null,
+      intactShare: slots > 0 && tracedSec > 0 ? intactSec / tracedSec : null,
       firstDegradation,
       longestLossSec,
+      longestLossEstimated,
+      lostFrames,
+      lostIsLowerBound,
+      outageSec,
+      outages,
       longestGapSec,
       unknownGaps,
     },

@@ -4,6 +4,7 @@ import { and, eq, isNull } from "drizzle-orm";
 import { db } from "@/db/client";
 import { flights, recordings, signalTraces } from "@/db/schema";
 import { ApiError } from "@/lib/api/errors";
+import { readRecordingFigures } from "@/lib/media/recording-figures";
 import { buildFlightTimeline, type FlightTimeline } from "./build-flight-timeline";
 
 export const FLIGHT_NOT_FOUND = "Flight not found";
@@ -28,6 +29,7 @@ export async function loadFlightTimeline(organisationId: string, flightId: strin
       sequenceIndex: recordings.sequenceIndex,
       state: recordings.state,
       durationSec: recordings.durationSec,
+      figures: recordings.figures,
       summary: signalTraces.summary,
     })
     .from(recordings)
@@ -35,6 +37,28 @@ export async function loadFlightTimeline(organisationId: string, flightId: strin
     .where(and(eq(recordings.organisationId, organisationId), eq(recordings.flightId, flightId), isNull(recordings.deletedAt)));
   const timeline = buildFlightTimeline(
     rows.map((r) => {
+      // The stored figures when the recording has them (computed once by the worker); recordings
+      // processed before figures existed fall back to their trace summary.
+      const f = readRecordingFigures(r);
+      if (f) {
+        return {
+          ...r,
+          durationSec: f.durationSeconds,
+          trace:
+            f.signalKnown && f.intactShare !== null
+              ? {
+                  durationSec: f.durationSeconds,
+                  frameCount: f.frameSlots,
+                  intactFrames: f.framesIntact,
+                  intactShare: f.intactShare,
+                  firstDegradationSec: f.firstDegradationSeconds,
+                  longestLossSec: f.longestLossSeconds,
+                  lostFrames: f.framesLost,
+                  lostIsLowerBound: f.framesLostIsLowerBound,
+                }
+              : null,
+        };
+      }
       const s = r.summary as (typeof r.summary & { durationSec?: number }) | null;
       return {
         ...r,

@@ -59,17 +59,40 @@ describe("buildFlightTimeline", () => {
     ]);
     // c closed 10:04:00 after 45 s: started 10:03:15, 45 s after b closed at 10:02:30
     expect(t.gaps.map((g) => g.seconds)).toEqual([60, 45]);
+    // The gaps are outages (longer than the tolerance): lost video between the files, estimated.
     expect(t.summary).toMatchObject({
       files: 3,
       recordedSec: 135,
       spanSec: 240,
-      longestLossSec: 1.5,
+      longestLossSec: 60,
+      longestLossEstimated: true,
       longestGapSec: 60,
       unknownGaps: 0,
-      firstDegradation: { recordingId: "b", index: 1, atSec: 12, flightSec: 132 },
+      outages: 2,
+      outageSec: 105,
+      firstDegradation: { recordingId: "a", index: 0, atSec: 60, flightSec: 60, between: true },
     });
-    // (1800 + 600 + 1350) intact of (1800 + 900 + 1350) frame slots
-    expect(t.summary.intactShare).toBeCloseTo(3750 / 4050, 12);
+    // intact seconds (60 + 30 * 600/900 + 45) of the flight's 240 s, outages included
+    expect(t.summary.intactShare).toBeCloseTo(125 / 240, 12);
+  });
+
+  it("files that follow each other within the tolerance have no outage; the first trouble is inside a file", () => {
+    const t = buildFlightTimeline([
+      file("a", "REC_1.264", "2026-03-14T10:01:00Z", 60, {}, 0),
+      // closed 10:01:31 after 30 s: started 10:01:01, 1 s after a closed
+      file("b", "REC_2.264", "2026-03-14T10:01:31Z", 30, { frameCount: 900, intactFrames: 600, firstDegradationSec: 12, longestLossSec: 1.5, lostFrames: 45, lostIsLowerBound: true }, 1),
+    ]);
+    expect(t.summary).toMatchObject({
+      outages: 0,
+      outageSec: 0,
+      longestLossSec: 1.5,
+      longestLossEstimated: false,
+      lostFrames: 45,
+      lostIsLowerBound: true,
+      firstDegradation: { recordingId: "b", index: 1, atSec: 12, flightSec: 73, between: false },
+    });
+    // the 1 s gap is within the tolerance: not counted as time
+    expect(t.summary.intactShare).toBeCloseTo((60 + 20) / 90, 12);
   });
 
   it("keeps going past an unknown gap, with flight times unknown from there on", () => {
