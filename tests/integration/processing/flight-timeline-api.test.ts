@@ -82,7 +82,16 @@ describe("GET /api/flights/:id/timeline", () => {
     expect(t.segments.map((s: { recordingId: string }) => s.recordingId)).toEqual([ids.first, ids.second, ids.third]);
     // closed 10:01:00; next closed 10:02:30 after 30 s -> started 10:02:00 -> 60 s gap; then 45 s
     expect(t.gaps.map((g: { seconds: number }) => g.seconds)).toEqual([60, 45]);
-    expect(t.summary).toMatchObject({ files: 3, longestGapSec: 60, longestLossSec: 1.5, firstDegradation: { recordingId: ids.second, flightSec: 132 } });
+    // the gaps are outages between files: counted as loss, estimated; the first one starts at the end of the first file
+    expect(t.summary).toMatchObject({
+      files: 3,
+      longestGapSec: 60,
+      longestLossSec: 60,
+      longestLossEstimated: true,
+      outages: 2,
+      outageSec: 105,
+      firstDegradation: { recordingId: ids.first, flightSec: 60, between: true },
+    });
   });
 
   it.each([
