@@ -179,7 +179,7 @@ describe("a damaged recording in the review room", () => {
     const neighbours = [meanAbsDiff(mine, await cleanFrame(n - 1)), meanAbsDiff(mine, await cleanFrame(n + 1)), meanAbsDiff(mine, await cleanFrame(n + 13))];
     if (process.env.CAIRN_PRINT_FIGURES) console.log(`still of slot ${n}: vs clean ${n} ${same.toFixed(3)}, vs ${n - 1}/${n + 1}/${n + 13} ${neighbours.map((x) => x.toFixed(3)).join(" / ")}`);
     // the re-encoded rendition differs a little from the clean stream; a neighbour (other counter,
-    // moved pattern) differs several times more
+    // moved pattern) differs several times more (measured: 0.98 levels of 255 against 4.6 / 6.5 / 16.7)
     for (const other of neighbours) expect(other).toBeGreaterThan(same * 3);
   });
 
@@ -210,7 +210,7 @@ describe("a damaged recording in the review room", () => {
     const same = meanAbsDiff(painted, await cleanFrame(155));
     const other = Math.min(meanAbsDiff(painted, await cleanFrame(154)), meanAbsDiff(painted, await cleanFrame(156)), meanAbsDiff(painted, await cleanFrame(165)));
     if (process.env.CAIRN_PRINT_FIGURES) console.log(`painted slot 155: vs clean 155 ${same.toFixed(3)}, nearest other ${other.toFixed(3)}`);
-    expect(other).toBeGreaterThan(same * 2);
+    expect(other).toBeGreaterThan(same * 3); // measured: 0.97 against 6.5
     await video().scrollIntoViewIfNeeded();
   });
 });
