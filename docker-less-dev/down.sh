@@ -1,17 +1,36 @@
 #!/usr/bin/env bash
-# Stops what up.sh started, cleanly (PostgreSQL fast shutdown, Redis SHUTDOWN, mail server SIGTERM).
+# Stops the local services of this checkout's data folder, cleanly (PostgreSQL fast shutdown, Redis
+# SHUTDOWN, the mail server's process group SIGTERM). With arguments, only those of postgres, redis,
+# smtp (the names up.sh writes to CAIRN_STARTED_LIST); without, all three.
 source "$(dirname "${BASH_SOURCE[0]}")/lib.sh"
-bin="$(pg_bin)"
-if [ -f "$PG_DATA/PG_VERSION" ] && as_pg "$bin/pg_ctl" -D "$PG_DATA" status >/dev/null 2>&1; then
-  as_pg "$bin/pg_ctl" -D "$PG_DATA" -m fast -w stop >/dev/null && log "PostgreSQL stopped"
+want=("$@"); [ ${#want[@]} -gt 0 ] || want=(postgres redis smtp)
+wants() { local w; for w in "${want[@]}"; do [ "$w" = "$1" ] && return 0; done; return 1; }
+
+if wants postgres; then
+  bin="$(pg_bin)"
+  if [ -f "$PG_DATA/PG_VERSION" ] && as_pg "$bin/pg_ctl" -D "$PG_DATA" status >/dev/null 2>&1; then
+    as_pg "$bin/pg_ctl" -D "$PG_DATA" -m fast -w stop >/dev/null && log "PostgreSQL stopped"
+  fi
 fi
-if redis-cli -h 127.0.0.1 -p "$REDIS_PORT" ping >/dev/null 2>&1; then
-  redis-cli -h 127.0.0.1 -p "$REDIS_PORT" shutdown >/dev/null 2>&1 || true; log "Redis stopped"
+if wants redis && redis-cli -h 127.0.0.1 -p "$REDIS_PORT" ping >/dev/null 2>&1; then
+  # only a Redis that keeps its files in this data folder is ours to stop
+  if [ "$(redis-cli -h 127.0.0.1 -p "$REDIS_PORT" config get dir 2>/dev/null | sed -n 2p)" = "$(cd "$REDIS_DIR" 2>/dev/null && pwd -P)" ]; then
+    redis-cli -h 127.0.0.1 -p "$REDIS_PORT" shutdown >/dev/null 2>&1 || true
+    for _ in $(seq 1 50); do redis-cli -h 127.0.0.1 -p "$REDIS_PORT" ping >/dev/null 2>&1 || break; sleep 0.1; done
+    log "Redis stopped"
+  else
+    log "Redis on 127.0.0.1:$REDIS_PORT does not keep its data in $REDIS_DIR: left running"
+  fi
 fi
-# the mail server runs in a process group of its own (up.sh): stop the whole group, found through
-# this clone's own tsx loader path so another checkout's server is never touched
-smtp_pid=$(pgrep -f "$ROOT/node_modules/tsx/dist/loader.mjs docker-less-dev/fake-smtp.ts" | head -n 1 || true)
-if [ -n "$smtp_pid" ]; then
-  pgid=$(ps -o pgid= -p "$smtp_pid" | tr -d ' ')
-  kill -TERM -- "-$pgid" 2>/dev/null && log "fake mail server stopped" || true
+if wants smtp && [ -f "$SMTP_PIDFILE" ]; then
+  pgid="$(cat "$SMTP_PIDFILE")"
+  # the process group up.sh started, if it still runs the mail server (a pid may have been reused)
+  if [ -n "$pgid" ] && ps -o args= -g "$pgid" 2>/dev/null | grep -q "docker-less-dev/fake-smtp.ts"; then
+    kill -TERM -- "-$pgid" 2>/dev/null || true
+    for _ in $(seq 1 50); do ps -g "$pgid" >/dev/null 2>&1 || break; sleep 0.1; done
+    ps -g "$pgid" >/dev/null 2>&1 && kill -KILL -- "-$pgid" 2>/dev/null || true
+    log "fake mail server stopped"
+  fi
+  rm -f "$SMTP_PIDFILE"
 fi
+exit 0

@@ -31,6 +31,7 @@ start_postgres() {
     fi
     as_pg "$bin/pg_ctl" -D "$PG_DATA" -l "$PG_LOG" -w -t 60 \
       -o "-c listen_addresses=127.0.0.1 -p $PG_PORT -k $PG_RUN -c fsync=on" start >/dev/null
+    note_started postgres
     log "PostgreSQL started on 127.0.0.1:$PG_PORT"
   fi
   # The app connects as a role without superuser, so it cannot disable the custody log's trigger.
@@ -58,6 +59,7 @@ start_redis() {
     --maxmemory-policy noeviction --daemonize yes --pidfile "$REDIS_DIR/redis.pid" \
     --logfile "$DATA/logs/redis.log" --save ""
   for _ in $(seq 1 50); do redis-cli -h 127.0.0.1 -p "$REDIS_PORT" ping >/dev/null 2>&1 && break; sleep 0.1; done
+  note_started redis
   log "Redis started on 127.0.0.1:$REDIS_PORT"
 }
 
@@ -66,9 +68,14 @@ start_smtp() {
     log "fake mail server already running on 127.0.0.1:$SMTP_PORT"; return
   fi
   mkdir -p "$DATA/mail"
-  # its own process group, so stopping it also stops the node process that tsx starts
-  (cd "$ROOT" && setsid nohup node_modules/.bin/tsx docker-less-dev/fake-smtp.ts >>"$DATA/logs/fake-smtp.log" 2>&1 </dev/null &)
+  # a process group of its own (setsid), so stopping the group also stops the node process and the
+  # esbuild service that tsx starts; its id is kept so down.sh stops this server and no other
+  # (setsid may fork, so the new session's leader writes its own pid, then becomes the server)
+  (cd "$ROOT" && CAIRN_SMTP_PORT="$SMTP_PORT" MAIL_DIR="$DATA/mail" PIDFILE="$SMTP_PIDFILE" \
+    setsid bash -c 'echo $$ > "$PIDFILE"; exec node_modules/.bin/tsx docker-less-dev/fake-smtp.ts' \
+    >>"$DATA/logs/fake-smtp.log" 2>&1 </dev/null &)
   for _ in $(seq 1 100); do (exec 3<>"/dev/tcp/127.0.0.1/$SMTP_PORT") 2>/dev/null && break; sleep 0.1; done
+  note_started smtp
   log "fake mail server on 127.0.0.1:$SMTP_PORT (messages in $DATA/mail)"
 }
 

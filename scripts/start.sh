@@ -1,13 +1,24 @@
 #!/usr/bin/env bash
-# npm start: everything from a fresh clone to a running Cairn. Ctrl-C stops all of it.
+# npm start: everything from a fresh clone to a running Cairn. Ctrl-C stops the web app, the worker
+# and the local services this run started (services found already running are left alone).
 set -euo pipefail
 cd "$(dirname "$0")/.."
+source docker-less-dev/lib.sh
 bash scripts/ensure-deps.sh
-bash docker-less-dev/up.sh
+started="$(mktemp)"
+stop_started() {
+  local list; list="$(sort -u "$started" | tr '\n' ' ')"
+  [ -z "${list// /}" ] || bash docker-less-dev/down.sh $list || true
+  rm -f "$started"
+}
+trap stop_started EXIT
+CAIRN_STARTED_LIST="$started" bash docker-less-dev/up.sh
+export_local_env
 export CAIRN_LOCAL=1
 npx tsx db/migrate.ts
 npx tsx db/seed.ts
-if [ ! -f .next/BUILD_ID ] || [ -n "$(find app components lib db -newer .next/BUILD_ID -type f -print -quit 2>/dev/null)" ]; then
+DIST="${NEXT_DIST_DIR:-.next}"
+if [ ! -f "$DIST/BUILD_ID" ] || [ -n "$(find app components lib db instrumentation.ts -newer "$DIST/BUILD_ID" -type f -print -quit 2>/dev/null)" ]; then
   echo "[cairn] building the web app"
   npx next build
 fi
@@ -20,11 +31,12 @@ cat <<MSG
     pilot@kestrelmoor.example     pilot
     reviewer@kestrelmoor.example  reviewer
     client@kestrelmoor.example    client
-  Fake mailbox: http://localhost:${PORT}/dev/mailbox (messages also in .data/mail)
+  Fake mailbox: http://localhost:${PORT}/dev/mailbox (messages also in ${MAIL_DIR})
   Ctrl-C stops the app, the worker and the local services.
 
 MSG
-cleanup() { bash docker-less-dev/down.sh || true; }
-trap cleanup EXIT
-NEXTAUTH_URL="${NEXTAUTH_URL:-http://localhost:${PORT}}" npx concurrently -k -n web,worker -c cyan,magenta \
+export APP_URL="${APP_URL:-http://localhost:${PORT}}"
+export NEXTAUTH_URL="${NEXTAUTH_URL:-$APP_URL}"
+# concurrently -k: when one stops, the other is stopped too; Ctrl-C reaches both
+npx concurrently -k -n web,worker -c cyan,magenta \
   "npx next start -p ${PORT} -H 127.0.0.1" "npx tsx worker/main.ts"

@@ -1,10 +1,26 @@
 #!/usr/bin/env bash
 # npm test: every set-up step the tests need, then every test (unit, integration, browser).
+# The local services it starts are stopped again at the end, on success and on failure; those it
+# found already running are left running, and it says so.
 set -euo pipefail
 cd "$(dirname "$0")/.."
 export VITE_CONFIG_NATIVE_IGNORE_WARNING=true
 bash scripts/ensure-deps.sh
-CAIRN_NEED_BROWSER=1 bash docker-less-dev/up.sh
+started="$(mktemp)"
+found_running=""
+stop_started() {
+  local status=$? list
+  list="$(sort -u "$started" | tr '\n' ' ')"
+  [ -z "${list// /}" ] || bash docker-less-dev/down.sh $list || true
+  rm -f "$started"
+  [ -z "$found_running" ] || echo "[cairn] left running, as found before the tests:$found_running"
+  exit $status
+}
+trap stop_started EXIT
+up_log="$(CAIRN_STARTED_LIST="$started" CAIRN_NEED_BROWSER=1 bash docker-less-dev/up.sh | tee /dev/stderr)"
+grep -q "PostgreSQL already running" <<<"$up_log" && found_running="$found_running PostgreSQL"
+grep -q "Redis already running" <<<"$up_log" && found_running="$found_running Redis"
+grep -q "fake mail server already running" <<<"$up_log" && found_running="$found_running fake-mail-server"
 echo "[cairn] type check"
 npx tsc --noEmit
 echo "[cairn] unit tests"
@@ -13,5 +29,5 @@ echo "[cairn] integration tests (real PostgreSQL, Redis, ffmpeg)"
 npx vitest run --project integration
 echo "[cairn] building the web app for the browser tests"
 npx next build > .data/logs/next-build.log 2>&1 || { tail -50 .data/logs/next-build.log; exit 1; }
-echo "[cairn] browser tests (Debian chromium)"
+echo "[cairn] browser tests (Debian chromium), and the start command on a fresh data folder"
 npx vitest run --project e2e
