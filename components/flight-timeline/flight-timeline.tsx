@@ -8,7 +8,7 @@ import { useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
 import { fetchJson } from "@/components/fetch-json";
 import { Button } from "@/components/ui/button";
 import { TraceSummaryLine } from "@/components/trace/trace-summary";
-import type { FlightTimeline, TimelineGap, TimelineSegment } from "@/lib/flight-timeline/build-flight-timeline";
+import { GAP_TOLERANCE_SEC, type FlightTimeline, type TimelineGap, type TimelineSegment } from "@/lib/flight-timeline/build-flight-timeline";
 import { layoutFlightTimeline } from "./layout-flight-timeline";
 import { formatClockTime } from "@/lib/timecode/format-clock-time";
 
@@ -19,8 +19,20 @@ type Timeline = FlightTimeline & { flightId: string };
 
 const STATE_WORDS: Record<Segment["state"], string> = { waiting: "Waiting", processing: "Processing", ready: "Ready", failed: "Failed" };
 
-function gapWords(g: Gap): string {
-  return g.seconds === null ? `Gap, length unknown (${g.reason ?? "no file times"})` : `Gap of ${g.seconds.toFixed(1)} s between files`;
+// a gap longer than the tolerance is an outage: the video was lost between the files (the flight
+// summary counts it as loss, lib/flight-timeline/build-flight-timeline.ts)
+const isOutage = (g: Gap) => g.seconds !== null && g.seconds > GAP_TOLERANCE_SEC;
+
+export function gapWords(g: Gap): string {
+  if (g.seconds === null) return `Gap, length unknown (${g.reason ?? "no file times"})`;
+  return isOutage(g) ? `Video lost between files for about ${g.seconds.toFixed(1)} s (estimated from the recorder's file times)` : `Gap of ${g.seconds.toFixed(1)} s between files`;
+}
+
+export function firstDegradationLabel(t: Pick<Timeline, "summary">): string | undefined {
+  const fd = t.summary.firstDegradation;
+  if (!fd) return undefined;
+  const when = fd.flightSec !== null ? `${formatClockTime(fd.flightSec)} (flight time)` : `${formatClockTime(fd.atSec)} in file ${fd.index + 1}`;
+  return fd.between ? `${when}: video lost between files ${fd.index + 1} and ${fd.index + 2}` : when;
 }
 
 function segmentPattern(s: Segment): string {
@@ -73,10 +85,10 @@ export function FlightTimeline({ flightId, currentRecordingId, canReorder = fals
               <div
                 key={`gap-${i}`}
                 title={gapWords(g)}
-                className={`mx-px flex items-center justify-center text-[10px] text-ink-2 ${g.seconds === null ? "band-lost" : ""}`}
+                className={`mx-px flex items-center justify-center text-[10px] text-ink-2 ${g.seconds === null || isOutage(g) ? "band-lost" : ""} ${isOutage(g) ? "bg-bad-soft" : ""}`}
                 style={{ width: `${widths[gapIndex]}%` }}
               >
-                {g.seconds === null ? "?" : ""}
+                {g.seconds === null ? "?" : isOutage(g) ? "▲" : ""}
               </div>,
             );
           }
@@ -99,15 +111,25 @@ export function FlightTimeline({ flightId, currentRecordingId, canReorder = fals
       <TraceSummaryLine
         scope="flight"
         intactShare={t.summary.intactShare}
-        firstDegradationSec={t.summary.firstDegradation?.flightSec ?? null}
+        firstDegradationSec={t.summary.firstDegradation ? (t.summary.firstDegradation.flightSec ?? t.summary.firstDegradation.atSec) : null}
+        firstDegradationLabel={firstDegradationLabel(t)}
         longestLossSec={t.summary.longestLossSec}
+        longestLossEstimated={t.summary.longestLossEstimated}
+        lost={
+          t.summary.tracedFiles > 0 && (t.summary.lostFrames > 0 || t.summary.lostIsLowerBound || t.summary.outages === 0)
+            ? { frames: t.summary.lostFrames, isLowerBound: t.summary.lostIsLowerBound }
+            : null
+        }
       />
       <p className="text-xs text-ink-2">
         {t.summary.files} file{t.summary.files === 1 ? "" : "s"}, {formatClockTime(t.summary.recordedSec)} recorded
         {t.summary.spanSec !== null ? `, ${t.summary.spanSec.toFixed(1)} s from first to last frame` : ""}
         {t.summary.longestGapSec !== null ? `; longest gap between files ${t.summary.longestGapSec.toFixed(1)} s` : ""}
-        {t.summary.unknownGaps > 0 ? `; ${t.summary.unknownGaps} gap${t.summary.unknownGaps === 1 ? "" : "s"} of unknown length` : ""}. Gaps are estimated from the recorder&apos;s file
-        times.
+        {t.summary.unknownGaps > 0 ? `; ${t.summary.unknownGaps} gap${t.summary.unknownGaps === 1 ? "" : "s"} of unknown length` : ""}
+        {t.summary.outages > 0
+          ? `; video lost between files ${t.summary.outages} time${t.summary.outages === 1 ? "" : "s"}, about ${t.summary.outageSec.toFixed(1)} s in all (counted as loss above)`
+          : ""}
+        . Gaps are estimated from the recorder&apos;s file times.
       </p>
 
       <ol className="flex flex-col gap-1 text-sm" aria-label="Files of this flight, in order">

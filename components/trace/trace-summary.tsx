@@ -5,8 +5,9 @@
 import { formatClockTime } from "@/lib/timecode/format-clock-time";
 import { describeLost } from "@/components/player/describe-frame-count";
 
-export function describeFirstDegradation(firstDegradationSec: number | null, anyTrouble: boolean, scope: "recording" | "flight"): string {
-  if (firstDegradationSec !== null) return `at ${formatClockTime(firstDegradationSec)}${scope === "flight" ? " (flight time)" : ""}`;
+/** `clockLabel`: the moment as the player labels it (a frame time), when known; else seconds rounded. */
+export function describeFirstDegradation(firstDegradationSec: number | null, anyTrouble: boolean, scope: "recording" | "flight", clockLabel?: string): string {
+  if (firstDegradationSec !== null) return `at ${clockLabel ?? `${formatClockTime(firstDegradationSec)}${scope === "flight" ? " (flight time)" : ""}`}`;
   return anyTrouble ? (scope === "flight" ? "time not known (a gap between files is of unknown length)" : "time not known") : "none";
 }
 
@@ -16,6 +17,8 @@ export function TraceSummaryLine({
   longestLossSec,
   lost,
   damagedFrames,
+  firstDegradationLabel,
+  longestLossEstimated = false,
   scope = "recording",
 }: {
   intactShare: number | null;
@@ -23,6 +26,10 @@ export function TraceSummaryLine({
   longestLossSec: number;
   lost?: { frames: number; isLowerBound: boolean } | null;
   damagedFrames?: number | null;
+  /** the first degradation's frame time (lib/timecode/format-frame-clock-time.ts), as the player shows it */
+  firstDegradationLabel?: string;
+  /** the longest loss is an outage between files, its length estimated from the recorder's file times */
+  longestLossEstimated?: boolean;
   scope?: "recording" | "flight";
 }) {
   const anyTrouble = longestLossSec > 0 || (intactShare !== null && intactShare < 1) || (lost?.frames ?? 0) > 0 || (damagedFrames ?? 0) > 0;
@@ -32,10 +39,10 @@ export function TraceSummaryLine({
       <dd className="font-mono tabular">{intactShare === null ? "no trace" : `${(intactShare * 100).toFixed(1)} % of frames`}</dd>
       <dt className="text-ink-2">First degradation</dt>
       <dd className="font-mono tabular" data-testid="first-degradation">
-        {describeFirstDegradation(firstDegradationSec, anyTrouble, scope)}
+        {describeFirstDegradation(firstDegradationSec, anyTrouble, scope, firstDegradationLabel)}
       </dd>
       <dt className="text-ink-2">Longest loss</dt>
-      <dd className="font-mono tabular">{longestLossSec > 0 ? `${longestLossSec.toFixed(3)} s` : "none"}</dd>
+      <dd className="font-mono tabular">{longestLossSec > 0 ? `${longestLossEstimated ? "about " : ""}${longestLossSec.toFixed(3)} s${longestLossEstimated ? " (between files, estimated)" : ""}` : "none"}</dd>
       {lost && (
         <>
           <dt className="text-ink-2">Frames lost</dt>
