@@ -7,7 +7,7 @@ import Link from "next/link";
 import { useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
 import { fetchJson } from "@/components/fetch-json";
 import { Button } from "@/components/ui/button";
-import { TraceSummaryLine } from "@/components/trace/trace-summary";
+import { formatMomentSec, TraceSummaryLine } from "@/components/trace/trace-summary";
 import { GAP_TOLERANCE_SEC, type FlightTimeline, type TimelineGap, type TimelineSegment } from "@/lib/flight-timeline/build-flight-timeline";
 import { layoutFlightTimeline } from "./layout-flight-timeline";
 import { formatClockTime } from "@/lib/timecode/format-clock-time";
@@ -31,7 +31,7 @@ export function gapWords(g: Gap): string {
 export function firstDegradationLabel(t: Pick<Timeline, "summary">): string | undefined {
   const fd = t.summary.firstDegradation;
   if (!fd) return undefined;
-  const when = fd.flightSec !== null ? `${formatClockTime(fd.flightSec)} (flight time)` : `${formatClockTime(fd.atSec)} in file ${fd.index + 1}`;
+  const when = fd.flightSec !== null ? `${formatMomentSec(fd.flightSec)} (flight time)` : `${formatMomentSec(fd.atSec)} in file ${fd.index + 1}`;
   return fd.between ? `${when}: video lost between files ${fd.index + 1} and ${fd.index + 2}` : when;
 }
 

@@ -2,12 +2,21 @@
 // video was first lost, the longest loss, and the lost and damaged frame counts ("at least N" when the
 // count is a lower bound). Used for one recording and for a whole flight. The figures never contradict
 // each other on screen: with any loss or damage, "first degradation" is never "none".
-import { formatClockTime } from "@/lib/timecode/format-clock-time";
+import { formatClockTimeMs } from "@/lib/timecode/format-clock-time";
+
+/**
+ * A moment given in seconds, labelled as the player labels frames: the first whole millisecond at or
+ * after it (lib/timecode/format-frame-clock-time.ts rounds up for the same reason), so frame 40 at
+ * 30 fps reads 00:00:01.334 here as in the readout, not 00:00:01.333.
+ */
+export function formatMomentSec(sec: number): string {
+  return formatClockTimeMs(Math.max(0, Math.ceil(sec * 1000 - 1e-6)));
+}
 import { describeLost } from "@/components/player/describe-frame-count";
 
 /** `clockLabel`: the moment as the player labels it (a frame time), when known; else seconds rounded. */
 export function describeFirstDegradation(firstDegradationSec: number | null, anyTrouble: boolean, scope: "recording" | "flight", clockLabel?: string): string {
-  if (firstDegradationSec !== null) return `at ${clockLabel ?? `${formatClockTime(firstDegradationSec)}${scope === "flight" ? " (flight time)" : ""}`}`;
+  if (firstDegradationSec !== null) return `at ${clockLabel ?? `${formatMomentSec(firstDegradationSec)}${scope === "flight" ? " (flight time)" : ""}`}`;
   return anyTrouble ? (scope === "flight" ? "time not known (a gap between files is of unknown length)" : "time not known") : "none";
 }
 

@@ -26,6 +26,11 @@ describe("the flight header", () => {
     expect(gapWords(t.gaps[0])).toBe("Video lost between files for about 12.0 s (estimated from the recorder's file times)");
   });
 
+  it("labels a flight moment as the player labels frames (rounded up to the millisecond)", () => {
+    const t = buildFlightTimeline([file("a", "2026-03-14T10:00:10Z", 10, { firstDegradationSec: 40 / 30, intactFrames: 290, intactShare: 290 / 300 })]);
+    expect(firstDegradationLabel(t)).toBe("00:00:01.334 (flight time)");
+  });
+
   it("a short gap is a gap, not a loss", () => {
     const t = buildFlightTimeline([file("a", "2026-03-14T10:00:10Z", 10, {}), file("b", "2026-03-14T10:00:21Z", 10, {})]);
     expect(gapWords(t.gaps[0])).toBe("Gap of 1.0 s between files");
