@@ -39,7 +39,7 @@ export const DEMO_JOBS = [
 ] as const;
 
 export const DEMO_FLIGHTS = [
-  { key: "tower-f1", job: "tower-annual", daysAgo: 3, aircraft: "Quad, 5 in props (demo airframe A)", maxAltitudeAglM: 61, launch: [54.41301, -2.61955], notes: "Wind 12 kt from the west; link faded behind the tower." },
+  { key: "tower-f1", job: "tower-annual", daysAgo: 3, aircraft: "Quad, 5 in props (demo airframe A)", maxAltitudeAglM: 61, launch: [54.41301, -2.61955], notes: "Wind 12 kt from the west; link faded behind the tower, the picture broke up and the video was lost for a few seconds (the recorder started a second file)." },
   { key: "tower-f2", job: "tower-annual", daysAgo: 3, aircraft: "Quad, 5 in props (demo airframe A)", maxAltitudeAglM: 45, launch: [54.41301, -2.61955], notes: "Second battery: roof and aerial mounts." },
   { key: "bridge-f1", job: "bridge-check", daysAgo: 1, aircraft: "Ducted quad (demo airframe B)", maxAltitudeAglM: 18, launch: [54.40790, -2.62460], notes: "Under-deck passes at walking pace." },
   { key: "solar-f1", job: "solar-survey", daysAgo: 30, aircraft: "Hex, survey camera (demo airframe C)", maxAltitudeAglM: 40, launch: [54.45480, -2.70300], notes: "" },

@@ -1,11 +1,16 @@
 // Demo recordings for `npm start`: short controller-like raw H.264 streams made by ffmpeg from test
 // patterns (never real footage), stored as originals the way the ingest path stores them, and queued
-// for the worker. The tower flight's recorder "split" its stream in two, the second file starting
-// after a gap, as a recorder does when the link drops. Idempotent: skipped once the organisation
-// has recordings.
+// for the worker. Idempotent: skipped once the organisation has recordings.
+//
+// The first tower flight's note says the link faded behind the tower, and its two files show it (see
+// TOWER_FADE): scattered lost frames, a run lost at the end of a group of pictures, scrambled slices
+// in an IDR and in P pictures, the video lost over a whole group and back at a later IDR, and the
+// recorder splitting the flight into two files across an outage of about 6 s. The other demo files
+// are clean. Every stream is 432x240 at 30 fps with a burned-in frame counter, a few seconds long, so
+// the seed and the worker stay quick on a fresh machine.
 import { spawn } from "node:child_process";
-import { createReadStream } from "node:fs";
-import { mkdtemp, rm } from "node:fs/promises";
+import { createReadStream, existsSync } from "node:fs";
+import { mkdtemp, rename, rm } from "node:fs/promises";
 import os from "node:os";
 import path from "node:path";
 import { randomUUID } from "node:crypto";
@@ -17,15 +22,39 @@ import { recordCustodyEvent } from "@/lib/custody/record-custody-event";
 import { insertRecordingRow } from "@/lib/ingest/insert-recording-row";
 import { originalKey, placeOriginal } from "@/lib/storage/local-store";
 import { enqueue } from "@/lib/queue/jobs";
+import { damageDemoStream, frames, type DemoDamage } from "./damage-demo-stream";
 
-type DemoFile = { flightKeyIndex: number; name: string; pattern: string; seconds: number; startOffsetMin: number };
+export type DemoFile = {
+  flightKeyIndex: number;
+  name: string;
+  pattern: string;
+  seconds: number;
+  /** When the recorder started the file, seconds after 10:00:00 on the flight's day. */
+  startSec: number;
+  damage?: DemoDamage;
+};
+
+// The fading link behind the tower (30 fps, an IDR every 30 frames, so groups start at 0, 30, 60 ...).
+export const TOWER_FADE: DemoDamage = {
+  remove: [
+    97, 143, 188, 221, // scattered single frames
+    ...frames(265, 270), // the end of a group, just before the IDR at 270
+    ...frames(400, 413), // 13 frames mid-group
+    ...frames(455, 510), // the rest of the group at 450 and the whole group at 480: back at the IDR at 510
+  ],
+  scramble: [300, 333, 347, 560], // the IDR at 300 and P pictures
+};
 
 // 432x240 Constrained Baseline at ~560 kbit/s, 30 fps: the shape of a controller recording
-const FILES: DemoFile[] = [
-  { flightKeyIndex: 0, name: "VID_0001.h264", pattern: "testsrc2", seconds: 12, startOffsetMin: 0 },
-  { flightKeyIndex: 0, name: "VID_0002.h264", pattern: "testsrc", seconds: 8, startOffsetMin: 1 },
-  { flightKeyIndex: 1, name: "VID_0003.h264", pattern: "smptebars", seconds: 10, startOffsetMin: 0 },
+export const DEMO_FILES: DemoFile[] = [
+  { flightKeyIndex: 0, name: "VID_0001.h264", pattern: "testsrc2", seconds: 20, startSec: 0, damage: TOWER_FADE },
+  // the recorder closed the first file when the video was lost, and opened this one about 6 s later
+  { flightKeyIndex: 0, name: "VID_0002.h264", pattern: "testsrc2", seconds: 8, startSec: 26, damage: { remove: [40, 41, 42, 130], scramble: [75] } },
+  { flightKeyIndex: 1, name: "VID_0003.h264", pattern: "smptebars", seconds: 10, startSec: 0 },
+  { flightKeyIndex: 1, name: "VID_0004.h264", pattern: "testsrc", seconds: 8, startSec: 60 },
 ];
+
+const COUNTER_FONT = "/usr/share/fonts/truetype/dejavu/DejaVuSans.ttf";
 
 function ffmpeg(args: string[]): Promise<void> {
   return new Promise((resolve, reject) => {
@@ -35,6 +64,27 @@ function ffmpeg(args: string[]): Promise<void> {
     p.on("error", reject);
     p.on("close", (code) => (code === 0 ? resolve() : reject(new Error(`ffmpeg failed (${code}): ${err.slice(-400)}`))));
   });
+}
+
+/** The demo file's raw H.264 stream, damaged as the file says, written into `dir`. */
+export async function generateDemoStream(f: DemoFile, dir: string): Promise<string> {
+  const clean = path.join(dir, `clean-${f.name}`);
+  // the frame counter needs Debian's DejaVu font (ffmpeg's fontconfig pulls it in); without it, no counter
+  const counter = existsSync(COUNTER_FONT) ? ["-vf", `drawtext=fontfile=${COUNTER_FONT}:text=%{frame_num}:fontsize=40:x=8:y=8:fontcolor=white:box=1:boxcolor=black`] : [];
+  await ffmpeg([
+    "-f", "lavfi", "-i", `${f.pattern}=size=432x240:rate=30`, "-t", String(f.seconds),
+    ...counter,
+    "-c:v", "libx264", "-profile:v", "baseline", "-preset", "veryfast", "-b:v", "560k",
+    "-g", "30", "-keyint_min", "30", "-sc_threshold", "0", "-bf", "0", "-pix_fmt", "yuv420p", "-f", "h264", clean,
+  ]);
+  const file = path.join(dir, f.name);
+  if (f.damage) {
+    await damageDemoStream(clean, file, f.damage);
+    await rm(clean, { force: true });
+  } else {
+    await rename(clean, file);
+  }
+  return file;
 }
 
 export async function seedDemoRecordings(database: Db, organisationId: string): Promise<number> {
@@ -52,20 +102,16 @@ export async function seedDemoRecordings(database: Db, organisationId: string): 
   const dir = await mkdtemp(path.join(os.tmpdir(), "cairn-demo-"));
   let count = 0;
   try {
-    for (const f of FILES) {
+    for (const f of DEMO_FILES) {
       const flight = flights[f.flightKeyIndex];
       if (!flight) continue;
-      const file = path.join(dir, f.name);
-      await ffmpeg([
-        "-f", "lavfi", "-i", `${f.pattern}=size=432x240:rate=30`, "-t", String(f.seconds),
-        "-c:v", "libx264", "-profile:v", "baseline", "-b:v", "560k", "-g", "30", "-pix_fmt", "yuv420p", "-f", "h264", file,
-      ]);
+      const file = await generateDemoStream(f, dir);
       const { hex: sha256, bytes } = await sha256OfStream(createReadStream(file));
       const id = randomUUID();
       const key = originalKey(organisationId, id);
       await placeOriginal(file, key);
-      const recorded = new Date(`${flight.flownOn}T10:00:00Z`);
-      recorded.setUTCMinutes(recorded.getUTCMinutes() + f.startOffsetMin);
+      // the file's time is when the recorder closed it: its start plus its length
+      const recorded = new Date(Date.parse(`${flight.flownOn}T10:00:00Z`) + (f.startSec + f.seconds) * 1000);
       await database.transaction(async (tx) => {
         await insertRecordingRow(tx, {
           id,
