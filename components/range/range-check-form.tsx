@@ -10,7 +10,8 @@ import { useSave } from "@/components/work/use-save";
 import { FetchError } from "@/components/fetch-json";
 import { fromMetres } from "@/lib/geo";
 import { LINK_EVENTS, LINK_EVENT_META, type LinkEvent } from "@/lib/range/link-events";
-import { formatMetresIn, formatSeconds } from "@/lib/range/format-figures";
+import { formatMetresIn } from "@/lib/range/format-figures";
+import { formatMomentSec } from "@/components/trace/trace-summary";
 import type { RangeFlight } from "@/lib/range/load-range-page-data";
 import type { DisplayUnits } from "@/lib/validation/range-checks";
 import { LinkEventMark } from "./link-event-mark";
@@ -128,7 +129,7 @@ export function RangeCheckForm({ mode, flight, units, onClose }: { mode: RangeCh
         {mode.kind === "trace" ? (
           <div className="rounded-md border border-line bg-paper-2 p-3 text-sm" data-testid="trace-event-summary">
             <p className="flex flex-wrap items-center gap-2 font-medium">
-              <LinkEventMark event={mode.event.event} /> at <span className="font-mono">{formatSeconds(mode.event.atSec)}</span> of{" "}
+              <LinkEventMark event={mode.event.event} /> at <span className="font-mono">{formatMomentSec(mode.event.atSec)}</span> of{" "}
               <span className="font-mono">{mode.event.recordingName}</span>
             </p>
             <p className="mt-1 text-xs text-ink-2">

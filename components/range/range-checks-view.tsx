@@ -11,7 +11,8 @@ import { PageHeader } from "@/components/ui/page-header";
 import { ResourceTable } from "@/components/ui/resource-table";
 import { EmptyState } from "@/components/ui/empty-state";
 import { fetchJson } from "@/components/fetch-json";
-import { formatBearing, formatLatLon, formatMetresIn, formatSeconds } from "@/lib/range/format-figures";
+import { formatBearing, formatLatLon, formatMetresIn } from "@/lib/range/format-figures";
+import { formatMomentSec } from "@/components/trace/trace-summary";
 import type { RangeFlight } from "@/lib/range/load-range-page-data";
 import type { DisplayUnits } from "@/lib/validation/range-checks";
 import { LinkEventMark } from "./link-event-mark";
@@ -39,7 +40,7 @@ export function RangeChecksView({ flights, flightId, canWrite, initialUnits }: {
 
   const columns: ColumnDef<RangeCheckRow, unknown>[] = [
     { id: "event", header: "Link event", accessorKey: "event", cell: (c) => <LinkEventMark event={c.row.original.event} /> },
-    { id: "atSec", header: "Time", accessorKey: "atSec", cell: (c) => <span className="font-mono">{c.row.original.atSec === null ? "—" : formatSeconds(c.row.original.atSec)}</span> },
+    { id: "atSec", header: "Time", accessorKey: "atSec", cell: (c) => <span className="font-mono">{c.row.original.atSec === null ? "—" : formatMomentSec(c.row.original.atSec)}</span> },
     {
       id: "slantRangeM",
       header: `Slant range (${units})`,

@@ -2,7 +2,7 @@
 // The link events found in the flight's signal traces, each one click away from a range check.
 import { useQuery } from "@tanstack/react-query";
 import { fetchJson } from "@/components/fetch-json";
-import { formatSeconds } from "@/lib/range/format-figures";
+import { formatMomentSec } from "@/components/trace/trace-summary";
 import { LinkEventMark } from "./link-event-mark";
 import { LINK_EVENT_META } from "@/lib/range/link-events";
 import type { TraceEventItem, TraceEventsAnswer } from "./range-check-types";
@@ -47,10 +47,12 @@ export function TraceEventsPanel({
           {data.items.map((ev) => (
             <li key={`${ev.recordingId}-${ev.intervalIndex}`} className="flex flex-wrap items-center gap-3 px-3 py-2 text-sm">
               <LinkEventMark event={ev.event} />
-              <span className="font-mono tabular">at {formatSeconds(ev.atSec)}</span>
+              <span className="font-mono tabular">
+                at {formatMomentSec(ev.atSec)} <span className="text-ink-2">frame {ev.atFrame}</span>
+              </span>
               <span className="text-ink-2">
                 of <span className="font-mono">{ev.recordingName}</span>
-                {ev.state !== "intact" && <> · {ev.state === "lost" ? "video lost" : "picture breaking up"} for {formatSeconds(ev.durationSec)}</>}
+                {ev.state !== "intact" && <> · {ev.state === "lost" ? "video lost" : "picture breaking up"} for {ev.durationSec.toFixed(3)} s</>}
               </span>
               <span className="ml-auto">
                 {ev.rangeCheckId ? (
@@ -62,7 +64,7 @@ export function TraceEventsPanel({
                     type="button"
                     onClick={() => onLog(ev, data.prefill)}
                     className="min-h-10 rounded-md border border-lake px-3 font-medium text-lake hover:bg-lake-soft"
-                    aria-label={`Log range check: ${LINK_EVENT_META[ev.event].label} at ${formatSeconds(ev.atSec)} of ${ev.recordingName}`}
+                    aria-label={`Log range check: ${LINK_EVENT_META[ev.event].label} at ${formatMomentSec(ev.atSec)} of ${ev.recordingName}`}
                   >
                     Log range check
                   </button>

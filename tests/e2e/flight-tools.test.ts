@@ -126,7 +126,7 @@ describe("flight tools in the browser", () => {
     // first degradation at 10 s, total loss at 12 s, reacquired at 15 s
     const ours = events.locator("li", { hasText: recordingName });
     expect(await ours.count()).toBe(3);
-    await page.getByRole("button", { name: `Log range check: Video lost at 12.00 s of ${recordingName}` }).click();
+    await page.getByRole("button", { name: `Log range check: Video lost at 00:00:12.000 of ${recordingName}` }).click();
 
     const dialog = page.getByRole("dialog");
     expect(await dialog.getByTestId("trace-event-summary").textContent()).toContain("Video lost");
