@@ -45,7 +45,7 @@ export function TraceSummaryLine({
   return (
     <dl className="grid grid-cols-[auto_1fr] gap-x-3 gap-y-0.5 text-sm sm:grid-cols-[auto_auto_auto_auto_auto_auto]" data-testid="trace-summary">
       <dt className="text-ink-2">Intact</dt>
-      <dd className="font-mono tabular">{intactShare === null ? "no trace" : `${(intactShare * 100).toFixed(1)} % of frames`}</dd>
+      <dd className="font-mono tabular">{intactShare === null ? "no trace" : `${(intactShare * 100).toFixed(1)} % of ${scope === "flight" ? "the flight's time" : "frames"}`}</dd>
       <dt className="text-ink-2">First degradation</dt>
       <dd className="font-mono tabular" data-testid="first-degradation">
         {describeFirstDegradation(firstDegradationSec, anyTrouble, scope, firstDegradationLabel)}
