@@ -3,6 +3,9 @@
 // token. The view counts for that share link only if the signature is ours, the grant is for this
 // recording, the link is still open and still shows it. Grants live 10 minutes while a view can
 // last longer, so for analytics a grant is accepted for a while after its expiry.
+import { and, eq, isNotNull } from "drizzle-orm";
+import { db } from "@/db/client";
+import { playbackViews } from "@/db/schema";
 import { env } from "@/lib/config/env";
 import { verifyMediaGrant } from "@/lib/sharing/media-grant";
 import { resolveShareLinkById } from "@/lib/sharing/resolve-share-link";
@@ -19,5 +22,23 @@ export async function shareViewerOf(accessToken: string, recordingId: string, no
   const resolved = await resolveShareLinkById(check.grant.linkId, now);
   if (resolved.kind !== "open") return null;
   if (!(await resolveScopedFile(resolved.link, "playable", recordingId))) return null;
+  return { organisationId: resolved.link.organisationId, shareLinkId: resolved.link.id };
+}
+
+/**
+ * The share link of a view that an earlier beacon already proved: mux-embed sends custom fields such
+ * as the access token only in a view's first event and leaves out unchanged fields after it, so a
+ * later beacon of the same view carries its view id (always sent) but no token. The view id is a
+ * random id only that page knows; the link must still be open.
+ */
+export async function knownShareViewer(viewKey: string, recordingId: string, now = new Date()): Promise<ShareViewer | null> {
+  const [row] = await db()
+    .select({ shareLinkId: playbackViews.shareLinkId })
+    .from(playbackViews)
+    .where(and(eq(playbackViews.viewKey, viewKey), eq(playbackViews.recordingId, recordingId), isNotNull(playbackViews.shareLinkId)))
+    .limit(1);
+  if (!row?.shareLinkId) return null;
+  const resolved = await resolveShareLinkById(row.shareLinkId, now);
+  if (resolved.kind !== "open") return null;
   return { organisationId: resolved.link.organisationId, shareLinkId: resolved.link.id };
 }

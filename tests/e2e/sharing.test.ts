@@ -170,16 +170,20 @@ describe("sharing a finding's clip with a client", () => {
   });
 
   it("the client's viewing is counted for the share link in the recording's playback analytics", async () => {
-    // leaving the page ends the view, and the analytics SDK sends what it has queued
-    await clientPage.goto("about:blank");
+    // The page stays open until the watch time has arrived. mux-embed sends its queued events every
+    // 10 s (baseTimeBetweenBeacons) and once more on pagehide, but that last send is skipped while an
+    // earlier beacon POST is still in flight (its _sendBeaconQueue only marks a resend for after that
+    // POST, which never completes on a page being left): on a slow machine, leaving the page at once
+    // lost the events that carry the watch time, and the row kept 0.
     const [link] = await db().select({ id: s.shareLinks.id }).from(s.shareLinks).where(eq(s.shareLinks.tokenHash, hashShareToken(shareUrl.split("/").pop()!)));
-    // the SDK's beacons arrive in more than one request: wait until the watch time has arrived too
-    await expect
-      .poll(async () => (await db().select({ w: s.playbackViews.watchTimeMs }).from(s.playbackViews).where(eq(s.playbackViews.shareLinkId, link.id)))[0]?.w ?? -1, { timeout: 30_000, interval: 500 })
-      .toBeGreaterThan(0);
-    const [view] = await db().select().from(s.playbackViews).where(eq(s.playbackViews.shareLinkId, link.id));
-    expect(view.viewerUserId).toBeNull();
-    expect(view.watchTimeMs).toBeGreaterThan(0);
+    const views = () => db().select().from(s.playbackViews).where(eq(s.playbackViews.shareLinkId, link.id));
+    await expect.poll(async () => Math.max(-1, ...(await views()).map((v) => v.watchTimeMs)), { timeout: 45_000, interval: 500 }).toBeGreaterThan(0);
+    await clientPage.goto("about:blank");
+    // one viewing, one view: every beacon of the page landed on the same row
+    const rows = await views();
+    expect(rows).toHaveLength(1);
+    expect(rows[0].viewerUserId).toBeNull();
+    expect(rows[0].watchTimeMs).toBeGreaterThan(0);
   });
 
   it("the owner sees the open and the download, revokes, and the link shows the revoked page", async () => {

@@ -15,7 +15,7 @@ const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 import { env } from "@/lib/config/env";
 import { readBeacons, BeaconError } from "@/lib/playback/read-beacons";
 import { recordPlaybackViews } from "@/lib/playback/record-playback-views";
-import { shareViewerOf } from "@/lib/playback/share-viewer";
+import { knownShareViewer, shareViewerOf } from "@/lib/playback/share-viewer";
 
 const MAX_BODY_BYTES = 600 * 1024; // mux-embed caps a beacon at 500 KB (maxPayloadKBSize)
 
@@ -68,13 +68,20 @@ export async function POST(req: Request) {
     // a shared page's player sends its media grant with each view (no account behind it); every
     // other view needs a signed-in member, as does a post that carries nothing at all
     const shared = views.filter((v) => v.accessToken !== null);
-    const own = views.filter((v) => v.accessToken === null);
     const result = { stored: 0, ignored: 0 };
     const add = (r: { stored: number; ignored: number }) => {
       result.stored += r.stored;
       result.ignored += r.ignored;
     };
-    if (own.length > 0 || shared.length === 0) {
+    // a later beacon of a shared page's view carries no token (the SDK sends it in the view's first
+    // event only): it adds to the share link's view that an earlier beacon proved, without a session
+    const own = [];
+    for (const v of views.filter((v) => v.accessToken === null)) {
+      const known = UUID.test(v.recordingId) ? await knownShareViewer(v.viewKey, v.recordingId.toLowerCase()) : null;
+      if (known) add(await recordPlaybackViews({ ...known, userId: null }, [v]));
+      else own.push(v);
+    }
+    if (own.length > 0 || views.length === 0) {
       const member = await requireMember(req);
       // a client account counts views only of recordings it may see (its own clients' jobs)
       const mine = [];

@@ -140,6 +140,21 @@ describe("views from a shared page (no account)", () => {
     expect(await (await beacon(null, sharedEvents("shared-3", shownId, grant("playable", shownId, now - 7 * 3600)))).json()).toEqual({ stored: 0, ignored: 1 });
   });
 
+  it("adds later beacons of a shared view that carry no token (mux-embed sends custom_1 in a view's first event only)", async () => {
+    // mux-embed 5.x leaves out unchanged fields after a view's first event, except the ones it
+    // always sends (its list: view_id, video_id, viewer_time, event, ...); custom_1 is not among them
+    expect(await (await beacon(null, sharedEvents("shared-4", shownId, grant("playable", shownId)))).json()).toEqual({ stored: 1, ignored: 0 });
+    const later = { metadata: { transmission_timestamp: t0 + 12_000 }, events: [{ e: "pause", xid: "shared-4", vid: shownId, uti: t0 + 12_000, xwati: 11_500 }] };
+    const res = await beacon(null, later);
+    expect(res.status).toBe(200);
+    expect(await res.json()).toEqual({ stored: 1, ignored: 0 });
+    expect(await viewRow("shared-4")).toMatchObject({ shareLinkId: linkId, viewerUserId: null, watchTimeMs: 11_500 });
+    // a view id nobody proved, without token or session, is still refused
+    expect((await beacon(null, { ...later, events: [{ ...later.events[0], xid: "never-seen" }] })).status).toBe(401);
+    // nor can a known shared view id move to another recording
+    expect((await beacon(null, { ...later, events: [{ ...later.events[0], vid: hiddenId }] })).status).toBe(401);
+  });
+
   it("ignores a forged, mismatched or out-of-scope grant, and a revoked link", async () => {
     const good = grant("playable", shownId);
     const forged = good.slice(0, -2) + (good.endsWith("AA") ? "BB" : "AA");
@@ -156,6 +171,10 @@ describe("views from a shared page (no account)", () => {
     }
     await db().update(s.shareLinks).set({ revokedAt: new Date() }).where(eq(s.shareLinks.id, linkId));
     expect(await (await beacon(null, sharedEvents("after-revoke", shownId, good))).json()).toEqual({ stored: 0, ignored: 1 });
-    expect(await db().$count(s.playbackViews, eq(s.playbackViews.shareLinkId, linkId))).toBe(2); // shared-1 and shared-2 only
+    expect(await db().$count(s.playbackViews, eq(s.playbackViews.shareLinkId, linkId))).toBe(3); // shared-1, shared-2 and shared-4 only
+    // and a revoked link's view takes no more beacons
+    const after = { metadata: { transmission_timestamp: t0 + 20_000 }, events: [{ e: "pause", xid: "shared-4", vid: shownId, uti: t0 + 20_000, xwati: 19_000 }] };
+    expect((await beacon(null, after)).status).toBe(401);
+    expect((await viewRow("shared-4")).watchTimeMs).toBe(11_500);
   });
 });
