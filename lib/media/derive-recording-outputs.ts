@@ -87,6 +87,8 @@ export interface DeriveInput {
   headBytes?: number;
   /** 0..100 over the whole derivation, with the step's name. */
   onProgress?: (percent: number, step: string) => void;
+  /** Called once the playable MP4 is final (raw H.264), before the thumbnails: the benchmark times it. */
+  onPlayable?: () => void;
 }
 
 const CHROMA = ["4:0:0", "4:2:0", "4:2:2", "4:4:4"];
@@ -278,12 +280,14 @@ async function deriveFromRawH264Linked(input: DeriveInput, size: number, report:
   if (scanFoundDamage) {
     // The decoder pass runs alongside the re-encode.
     await reencode();
+    input.onPlayable?.();
     located = locateDecoderEvents(await decoded, probe.trace);
   } else {
     if (!copying) copyFailed = (await copy()) !== null;
     located = locateDecoderEvents(await decoded, probe.trace);
     // Damage only the decoder sees (inside slice data), or a copy ffmpeg could not finish.
     if (copyFailed || located.damagedFrames.length > 0 || located.gapFrames.length > 0) await reencode();
+    input.onPlayable?.();
   }
 
   const playable = await readContainerFacts(playablePath, signal);

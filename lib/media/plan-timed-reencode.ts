@@ -16,9 +16,11 @@
 // decoder's output count (N), is what is mapped: a picture the decoder drops does not shift the rest.
 // The filter goes to ffmpeg as a script file: with thousands of losses it outgrows one argument.
 //
-// libx264 settings for a controller stream (about 432x240 at ~0.5 Mbit/s): `veryfast` runs far above
-// real time at this size on two cores (bench/processing.ts measures it); CRF 23 is x264's default
-// quality, ample for a source that is itself ~0.5 Mbit/s and concealment-smeared; a keyframe every
+// libx264 settings for a controller stream (about 432x240 at ~0.5 Mbit/s): `superfast` encodes this
+// size at well over 30x real time on two cores (bench/processing.ts measures it; `veryfast` needs
+// about 1.5x the CPU for a file half the size, and leaves no headroom beside the decoder pass), and
+// at CRF 23 (x264's default quality) it lands near the source's own ~0.5-0.7 Mbit/s, ample for a
+// source that is itself ~0.5 Mbit/s and concealment-smeared; a keyframe every
 // second keeps seeking and frame stepping quick in the browser; maxrate/bufsize cap the bursts that
 // concealed noise would otherwise cost; yuv420p 8-bit is what every browser decodes; `scale` to the
 // first picture size keeps one size when the stream changes resolution mid-way (the encoder cannot).
@@ -40,7 +42,7 @@ export function reencodeVideoOptions(rate: FrameRateRatio): string[] {
   const keyint = Math.max(1, Math.round(rate.num / rate.den));
   return [
     "-c:v", "libx264",
-    "-preset", "veryfast",
+    "-preset", "superfast",
     "-crf", "23",
     "-maxrate", "1500k",
     "-bufsize", "3000k",
