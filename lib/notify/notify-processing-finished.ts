@@ -8,10 +8,17 @@ import { env } from "@/lib/config/env";
 import { composeMail, sendMail } from "@/lib/mail/send-mail";
 import { jobCrew } from "./job-crew";
 import { sendOnce } from "./send-once";
+import { describeLostFrames, readRecordingFigures, type RecordingFigures } from "@/lib/media/recording-figures";
 
 export type NotifyResult = { sent: string[]; skipped?: string; error?: string };
 
 export const recordingPageUrl = (recordingId: string) => `${env().APP_URL.replace(/\/+$/, "")}/recordings/${recordingId}`;
+
+/** " (360 frames, 45 lost)" from the stored figures; frames count recorder frame slots, lost ones included. */
+function describeFrames(f: RecordingFigures | null): string {
+  if (!f) return "";
+  return f.signalKnown && f.framesLost > 0 ? ` (${f.frameSlots} frames, ${describeLostFrames(f)} lost)` : ` (${f.frameSlots} frames)`;
+}
 
 export async function notifyProcessingFinished(recordingId: string): Promise<NotifyResult> {
   try {
@@ -24,6 +31,7 @@ export async function notifyProcessingFinished(recordingId: string): Promise<Not
         state: recordings.state,
         failureReason: recordings.failureReason,
         durationSec: recordings.durationSec,
+        figures: recordings.figures,
         processedAt: recordings.processedAt,
         uploadedBy: recordings.uploadedBy,
         deletedAt: recordings.deletedAt,
@@ -43,7 +51,7 @@ export async function notifyProcessingFinished(recordingId: string): Promise<Not
     const paragraphs = ready
       ? [
           `${rec.originalName} in "${rec.jobTitle}" has been processed and is ready to review.`,
-          ...(rec.durationSec ? [`Duration ${rec.durationSec.toFixed(1)} s. The original is kept byte for byte with its SHA-256.`] : []),
+          ...(rec.durationSec ? [`Duration ${rec.durationSec.toFixed(1)} s${describeFrames(readRecordingFigures(rec))}. The original is kept byte for byte with its SHA-256.`] : []),
         ]
       : [`Processing ${rec.originalName} in "${rec.jobTitle}" failed: ${rec.failureReason ?? "no reason given"}.`, "The original is kept unchanged; you can ask for it to be processed again."];
     const fact = `processing:${rec.id}:${rec.state}:${rec.processedAt?.getTime() ?? "none"}`;

@@ -12,6 +12,7 @@ import { makeFlight } from "@/tests/support/factories";
 import { closeRedis } from "@/lib/queue/redis";
 import { env } from "@/lib/config/env";
 import { makeReport, makeStoredRecording } from "./share-fixtures";
+import { computeRecordingFigures } from "@/lib/media/recording-figures";
 
 let orgId: string;
 let crew: { pilot: string; reviewer: string; client: string; uploader: string; outsider: string };
@@ -73,6 +74,17 @@ describe("processing finished", () => {
     await new Promise((r) => setTimeout(r, 300));
     expect((await readMailbox({ to: crew.pilot })).filter((m) => m.subject.includes("pass-ready.264"))).toHaveLength(1);
     expect(await readMailbox({ to: crew.client })).toHaveLength(0);
+  });
+
+  it("gives the stored figures: duration, frame slots and the lost count, 'at least' where it is a lower bound", async () => {
+    const rec = await makeStoredRecording(orgId, jobId, flightId, { name: "pass-figures.264" });
+    const states = new Uint8Array(360);
+    states.fill(2, 100, 145); // 45 lost frame slots
+    const figures = computeRecordingFigures({ frameRate: { num: 30, den: 1 }, states, framesLostIsLowerBound: true, rendition: "reencode" });
+    await db().update(s.recordings).set({ figures, durationSec: figures.durationSeconds }).where(eq(s.recordings.id, rec.id));
+    await notifyProcessingFinished(rec.id);
+    const [mail] = (await mailsTo(crew.pilot)).filter((m) => m.subject.includes("pass-figures.264"));
+    expect(mail.text).toContain("Duration 12.0 s (360 frames, at least 45 lost).");
   });
 
   it("says so when processing failed, with the reason", async () => {
