@@ -8,6 +8,7 @@ import { useQuery } from "@tanstack/react-query";
 import { fetchJson } from "@/components/fetch-json";
 import type { RecordingFigures } from "@/lib/media/recording-figures";
 import type { FrameRate } from "@/lib/timecode/frame-rate";
+import { formatFrameClockTime } from "@/lib/timecode/format-frame-clock-time";
 import { TraceBand } from "./trace-band";
 import { TraceSummaryLine } from "./trace-summary";
 import type { BandInterval } from "./layout-trace-band";
@@ -50,6 +51,7 @@ export function RecordingTracePanel({
   const total = figures ? figures.durationSeconds : (playableDurationSec ?? Math.max(0, ...t.intervals.map((i) => i.playableEndSec)));
   // the first interval that is not intact: the summary's first degradation can never say "none" beside a loss
   const firstTrouble = t.intervals.find((i) => i.state !== "intact");
+  const firstSlot = figures?.firstDegradationSlot ?? firstTrouble?.startFrame ?? null;
   const summary = figures
     ? {
         intactShare: figures.intactShare,
@@ -57,6 +59,7 @@ export function RecordingTracePanel({
         longestLossSec: figures.longestLossSeconds,
         lost: { frames: figures.framesLost, isLowerBound: figures.framesLostIsLowerBound },
         damagedFrames: figures.framesDamaged,
+        firstDegradationLabel: rate && firstSlot !== null ? formatFrameClockTime(firstSlot, rate) : undefined,
       }
     : {
         intactShare: t.summary.intactShare,
@@ -64,6 +67,7 @@ export function RecordingTracePanel({
         longestLossSec: t.summary.longestLossSec,
         lost: { frames: t.summary.lostFrames, isLowerBound: false },
         damagedFrames: t.summary.damagedFrames,
+        firstDegradationLabel: undefined,
       };
   return (
     <section aria-label="Signal trace" className="flex flex-col gap-2">

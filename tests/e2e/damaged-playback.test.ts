@@ -36,6 +36,7 @@ let browser: Browser;
 let ctx: BrowserContext;
 let page: Page;
 let rec: ProcessedRecording;
+let second: ProcessedRecording;
 let cleanPath: string;
 
 const video = () => page.locator("[data-testid=review-video] video");
@@ -75,6 +76,10 @@ beforeAll(async () => {
   cleanPath = await makeCounterH264({ seconds: SLOTS / FPS, fps: FPS, width: W, height: H, gop: 30 });
   const damaged = await makeDamagedH264(cleanPath, { remove: REMOVED, scramble: SCRAMBLED }, "e2e-damaged-playback");
   rec = await makeProcessedRecording(orgId, flight, { source: damaged, name: "FADE0001.264" });
+  // the recorder closed this file and, after the link came back 12 s later, a second one (2 s, clean)
+  second = await makeProcessedRecording(orgId, flight, { seconds: 2, fps: FPS, width: W, height: H, gop: 30, name: "FADE0002.264", sequenceIndex: 1 });
+  await db().update(s.recordings).set({ recorderModifiedAt: new Date("2026-03-14T10:00:06Z") }).where(eq(s.recordings.id, rec.recording.id));
+  await db().update(s.recordings).set({ recorderModifiedAt: new Date("2026-03-14T10:00:20Z") }).where(eq(s.recordings.id, second.recording.id));
   browser = await launch();
   ctx = await newContext(browser);
   page = await ctx.newPage();
@@ -117,12 +122,20 @@ describe("a damaged recording in the review room", () => {
     expect(labels.join(" ")).toMatch(/Picture breaking up/);
     expect(labels.join(" ")).not.toMatch(/Total loss|Reacquired|First degradation/);
     // one moment, one label: the summary's first degradation is the first event's frame time
-    expect(await page.getByTestId("first-degradation").innerText()).toBe("at 00:00:01.334");
+    expect(await page.getByRole("region", { name: "Signal trace" }).getByTestId("first-degradation").innerText()).toBe("at 00:00:01.334");
+    // the flight header: the first degradation at the same label, and the outage between the files as loss
+    const flight = page.getByRole("region", { name: "Flight timeline" });
+    await flight.getByTestId("first-degradation").waitFor();
+    expect(await flight.getByTestId("first-degradation").innerText()).toBe("at 00:00:01.334 (flight time)");
+    expect(await flight.innerText()).toContain("Video lost between files for about 12.0 s (estimated from the recorder's file times)");
+    expect(await flight.innerText()).toMatch(/about 12\.000 s \(between files, estimated\)/);
     // the 13-frame loss is drawn at least 6 px wide
     const lost = page.locator("[data-testid=trace-band] button[data-state=lost]").first();
     expect((await lost.boundingBox())!.width).toBeGreaterThanOrEqual(6);
     await page.getByTestId("trace-band").scrollIntoViewIfNeeded();
     await page.screenshot({ path: path.join(SHOTS, "damaged-band.png"), fullPage: false });
+    await flight.scrollIntoViewIfNeeded();
+    await page.screenshot({ path: path.join(SHOTS, "damaged-flight.png"), fullPage: false });
   });
 
   it("plays from start to end, with the recorder's duration", { timeout: 60_000 }, async () => {
