@@ -9,6 +9,7 @@ import * as s from "@/db/schema";
 import * as hold from "@/app/api/jobs/[id]/hold/route";
 import * as deletion from "@/app/api/recordings/[id]/deletion/route";
 import * as trail from "@/app/api/custody/route";
+import { clientOf, tieClientAccount } from "@/tests/support/client-scope";
 import { storePath } from "@/lib/storage/local-store";
 import { verifyOrganisationChain } from "@/lib/custody/verify-organisation-chain";
 import { demoActors, demoOrganisationId, req, route, type Actor, type DemoActorKey } from "@/tests/support/session";
@@ -30,6 +31,8 @@ beforeAll(async () => {
   actors = await demoActors();
   orgId = await demoOrganisationId();
   job = await makeSharedJob(orgId);
+  // the demo client account sees this job (a client account of another customer gets 404: client-scope.test.ts)
+  await tieClientAccount(actors.client!, await clientOf({ jobId: job.jobId }));
 });
 afterAll(async () => {
   await closeDb();

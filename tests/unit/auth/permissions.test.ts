@@ -19,8 +19,10 @@ const EXPECTED: Record<(typeof ROLES)[number], Permission[]> = {
     "findings.read",
     "custody.read",
     "rangechecks.write",
+    "views.read",
+    "range.read",
   ],
-  reviewer: ["workspace.read", "recordings.read", "recordings.tag", "originals.download", "findings.read", "findings.write", "reports.build", "custody.read"],
+  reviewer: ["workspace.read", "recordings.read", "recordings.tag", "originals.download", "findings.read", "findings.write", "reports.build", "custody.read", "views.read", "range.read"],
   client: ["workspace.read", "recordings.read", "findings.read"],
 };
 
