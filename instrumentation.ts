@@ -3,6 +3,9 @@
 // request (lib/config/env.ts).
 export async function register() {
   if (process.env.NEXT_RUNTIME !== "nodejs") return;
+  // every request carries the socket address it came from (lib/http/client-address.ts)
+  const { installPeerAddress } = await import("@/lib/http/install-peer-address");
+  installPeerAddress();
   const { requireSecrets } = await import("@/lib/config/env");
   requireSecrets();
   // settings that lose acknowledged work in a crash are printed, never fatal (lib/config/check-durability.ts)

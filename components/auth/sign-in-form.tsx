@@ -54,7 +54,9 @@ export function SignInForm() {
           onSubmit={pw.handleSubmit(async (v) => {
             setError(null);
             const res = await signIn("password", { email: v.email, password: v.password, redirect: false });
-            if (!res || res.error) setError("E-mail or password not recognised, or too many attempts. Try again in a few minutes.");
+            // 429 from lib/auth/sign-in-limit-gate.ts: this address waits; the e-mail link still works
+            if (res?.error === "rate_limited") setError("Too many tries from here for this account. Wait a few minutes, or choose “E-mail me a link”.");
+            else if (!res || res.error) setError("E-mail or password not recognised.");
             else router.replace(search.get("callbackUrl") ?? "/jobs");
           })}
         >
@@ -69,8 +71,9 @@ export function SignInForm() {
           className="flex flex-col gap-4"
           onSubmit={link.handleSubmit(async (v) => {
             setError(null);
-            await signIn("email", { email: v.email, redirect: false, callbackUrl: "/jobs" });
-            router.push("/sign-in/check-mail");
+            const res = await signIn("email", { email: v.email, redirect: false, callbackUrl: "/jobs" });
+            if (res?.error === "rate_limited") setError("Too many links asked for from here. Wait a while, then ask again.");
+            else router.push("/sign-in/check-mail");
           })}
         >
           <Field label="E-mail" type="email" autoComplete="username" {...link.register("email")} error={link.formState.errors.email?.message} />

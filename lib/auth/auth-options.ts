@@ -11,18 +11,14 @@ import { db } from "@/db/client";
 import { memberships, users } from "@/db/schema";
 import { env } from "@/lib/config/env";
 import { verifyPassword } from "./password";
-import { hit, reset, SIGN_IN_LIMITS } from "./rate-limit";
+import { assertNotLimited, forgiveAttempt, RateLimitedError } from "./attempt-limits";
+import { clientAddress } from "@/lib/http/client-address";
 import { composeMail, sendMail } from "@/lib/mail/send-mail";
 import { cairnAdapter } from "./adapter";
 import { isMemberOf } from "./organisations-of-user";
 import { endSession, startSession } from "./user-sessions";
 
 const credentialsSchema = z.object({ email: z.string().trim().toLowerCase().email().max(320), password: z.string().min(1).max(200) });
-
-function clientAddress(headers: Record<string, unknown> | undefined): string {
-  const fwd = headers?.["x-forwarded-for"];
-  return (typeof fwd === "string" && fwd.split(",")[0].trim()) || "local";
-}
 
 async function firstOrganisationOf(userId: string): Promise<string | null> {
   const [m] = await db()
@@ -32,6 +28,16 @@ async function firstOrganisationOf(userId: string): Promise<string | null> {
     .orderBy(asc(memberships.createdAt))
     .limit(1);
   return m?.organisationId ?? null;
+}
+
+async function sendSignInLink(email: string, url: string): Promise<void> {
+  const [u] = await db().select({ id: users.id }).from(users).where(eq(users.email, email));
+  if (!u) return; // links go to existing accounts only
+  const body = composeMail(
+    ["Someone asked to sign in to Cairn with this address. The link works once, for 15 minutes.", "If it was not you, ignore this message."],
+    { label: "Sign in to Cairn", url },
+  );
+  await sendMail({ to: email, subject: "Your Cairn sign-in link", ...body });
 }
 
 export const authOptions: NextAuthOptions = {
@@ -48,13 +54,20 @@ export const authOptions: NextAuthOptions = {
         const parsed = credentialsSchema.safeParse(raw);
         if (!parsed.success) return null;
         const { email, password } = parsed.data;
-        const addressOk = await hit("signin-addr", clientAddress(req?.headers), SIGN_IN_LIMITS.perAddress);
-        const accountOk = await hit("signin-acct", email, SIGN_IN_LIMITS.perAccount);
+        // limits per (account, address) and per address, never per account alone (attempt-limits.ts).
+        // The route claimed this try, or answered 429, before next-auth got here (sign-in-limit-gate.ts);
+        // while a wait runs even the right password gets the same answer as a wrong one.
+        const address = clientAddress(req?.headers as Record<string, unknown> | undefined);
+        try {
+          await assertNotLimited("signin", email, address);
+        } catch (err) {
+          if (err instanceof RateLimitedError) return null;
+          throw err;
+        }
         const [u] = await db().select().from(users).where(eq(users.email, email));
         const ok = await verifyPassword(password, u?.passwordHash);
-        // over the limit: refuse even a right password, with the same answer as a wrong one
-        if (!addressOk || !accountOk || !u || !ok) return null;
-        await reset("signin-acct", email);
+        if (!u || !ok) return null;
+        await forgiveAttempt("signin", email, address);
         return { id: u.id, email: u.email, name: u.name };
       },
     }),
@@ -62,17 +75,11 @@ export const authOptions: NextAuthOptions = {
       server: env().SMTP_URL,
       from: env().MAIL_FROM,
       maxAge: 15 * 60, // 15 min link lifetime
+      // Requests are limited per (address asked for, client address) and per client address before
+      // this runs (sign-in-limit-gate.ts). The lookup and the mail happen off the request path, so a
+      // known and an unknown address get the same answer in the same time; a failure is logged.
       async sendVerificationRequest({ identifier, url }) {
-        const email = identifier.toLowerCase();
-        const allowed = await hit("signin-link", email, SIGN_IN_LIMITS.perAccount);
-        const [u] = await db().select({ id: users.id }).from(users).where(eq(users.email, email));
-        // unknown addresses and over-limit accounts get the same answer and no mail
-        if (!u || !allowed) return;
-        const body = composeMail(
-          ["Someone asked to sign in to Cairn with this address. The link works once, for 15 minutes.", "If it was not you, ignore this message."],
-          { label: "Sign in to Cairn", url },
-        );
-        await sendMail({ to: email, subject: "Your Cairn sign-in link", ...body });
+        void sendSignInLink(identifier.toLowerCase(), url).catch((err) => console.warn(`[cairn] sign-in link not sent: ${(err as Error).message}`));
       },
     }),
   ],

@@ -31,6 +31,8 @@ const schema = z.object({
   SECRETS_FILE: z.string().default(".data/secrets/installation.json"),
   WORKER_CONCURRENCY: z.coerce.number().int().min(1).max(16).default(1),
   QUEUE_PREFIX: z.string().regex(/^[a-z0-9-]+$/).default("cairn"),
+  // proxies of our own in front of the app; X-Forwarded-For is read only through them (lib/http/client-address.ts)
+  TRUSTED_PROXY_HOPS: z.coerce.number().int().min(0).max(10).default(0),
 });
 
 export type Env = Omit<z.infer<typeof schema>, keyof InstallationSecrets> & InstallationSecrets & {

@@ -1,5 +1,6 @@
 // Appends one event to the organisation's custody chain inside a transaction. A per-organisation
 // advisory lock serialises appends, so two requests can never both link to the same previous event.
+import { clientAddress, UNKNOWN_ADDRESS } from "@/lib/http/client-address";
 import { randomUUID } from "node:crypto";
 import { desc, eq, sql } from "drizzle-orm";
 import { db, type DbOrTx } from "@/db/client";
@@ -101,9 +102,10 @@ export function requestFacts(req: Request): RequestFacts {
 
 /** The same from plain headers (server components have headers, not a Request). */
 export function factsFromHeaders(h: Headers): RequestFacts {
-  const fwd = h.get("x-forwarded-for");
+  // the socket address, or X-Forwarded-For only behind trusted proxies (lib/http/client-address.ts)
+  const address = clientAddress(h);
   return {
-    clientAddress: (fwd ? fwd.split(",")[0].trim() : h.get("x-real-ip")) ?? null,
+    clientAddress: address === UNKNOWN_ADDRESS ? null : address,
     userAgent: h.get("user-agent")?.slice(0, 400) ?? null,
   };
 }

@@ -5,9 +5,9 @@
 import { escapeHtml } from "@/lib/mail/send-mail";
 import { SHARE_RESPONSE_HEADERS } from "./share-response-headers";
 
-export type GateKind = "unknown" | "expired" | "revoked" | "passcode" | "passcode-refused";
+export type GateKind = "unknown" | "expired" | "revoked" | "passcode" | "passcode-refused" | "limited";
 
-const STATUS: Record<GateKind, number> = { unknown: 404, expired: 410, revoked: 410, passcode: 200, "passcode-refused": 404 };
+const STATUS: Record<GateKind, number> = { unknown: 404, expired: 410, revoked: 410, passcode: 200, "passcode-refused": 404, limited: 429 };
 
 const MARK = `<svg width="36" height="36" viewBox="0 0 32 32" aria-hidden="true"><rect x="6" y="22" width="20" height="7" rx="3.5" fill="#1d2430"/><rect x="9" y="14.5" width="14" height="6.5" rx="3.25" fill="#1d2430"/><rect x="12" y="7.5" width="8" height="6" rx="3" fill="#0f6e7a"/></svg>`;
 
@@ -26,7 +26,7 @@ footer{margin-top:1.5rem;font-size:.8rem;color:#4a5361}
 @media (prefers-color-scheme:dark){body,main{background:#161b23;color:#eef0f3}p,footer{color:#b7bfcb}.state{border-color:#eef0f3;color:#eef0f3}input{background:#202733;color:#eef0f3;border-color:#3b4554}}
 `;
 
-type GateOptions = { organisationName?: string; endedAt?: Date | null };
+type GateOptions = { organisationName?: string; endedAt?: Date | null; retryAfterSec?: number };
 
 function content(kind: GateKind, o: GateOptions): { title: string; state: string; body: string } {
   const from = o.organisationName ? ` from ${escapeHtml(o.organisationName)}` : "";
@@ -66,8 +66,17 @@ function content(kind: GateKind, o: GateOptions): { title: string; state: string
       return {
         title: "That passcode did not open this link",
         state: "Not opened",
-        body: `<p>Check the passcode and try again. After several wrong tries the link waits 15 minutes before it accepts any passcode.</p>${form('<p class="alert" role="alert">The passcode was not accepted.</p>')}`,
+        body: `<p>Check the passcode and try again. After several wrong tries from here, this page asks you to wait a while before the next one.</p>${form('<p class="alert" role="alert">The passcode was not accepted.</p>')}`,
       };
+    case "limited": {
+      const sec = o.retryAfterSec ?? 60;
+      const wait = sec < 90 ? `${sec} seconds` : `${Math.ceil(sec / 60)} minutes`;
+      return {
+        title: "Too many tries from here",
+        state: "Please wait",
+        body: `<p>Wait ${escapeHtml(wait)} before the next try. Tries from other places do not count against you.</p>`,
+      };
+    }
   }
 }
 

@@ -24,6 +24,7 @@ import { makeSharedJob, makeStoredRecording, sha256 } from "./share-fixtures";
 import { tokensSeen } from "./tokens-seen";
 import { execFileSync } from "node:child_process";
 import { TEST_ENV } from "@/tests/support/test-env";
+import { PEER_HEADER } from "@/lib/http/client-address";
 
 let actors: Record<DemoActorKey, Actor>;
 let orgId: string;
@@ -44,11 +45,20 @@ async function shareOk(body: Record<string, unknown>) {
   expect(res.status, JSON.stringify(json)).toBe(201);
   return { id: json.id as string, token: tokenOf(json.url), url: json.url as string };
 }
+// each request comes from an address of its own unless it names one, so the token-guessing limit
+// (tests/integration/security/attempt-limits.test.ts) stays out of these tests
+let addressSeq = 0;
+const freshAddress = () => `2001:db8::${(++addressSeq).toString(16)}`;
+const withAddress = (headers: HeadersInit | undefined) => {
+  const h = new Headers(headers);
+  if (!h.has(PEER_HEADER)) h.set(PEER_HEADER, freshAddress());
+  return h;
+};
 const door = (token: string, init: RequestInit = {}) =>
-  (init.method === "POST" ? gate.POST : gate.GET)(new Request(`http://localhost/s/${token}`, init), route({ token }));
-const postPasscode = (token: string, passcode: string) =>
-  door(token, { method: "POST", body: new URLSearchParams({ passcode }), headers: { "content-type": "application/x-www-form-urlencoded", "user-agent": "vitest-client" } });
-const manifest = async (token: string, cookie?: string) => manifestRoute.GET(new Request(`http://localhost/api/s/${token}/manifest`, { headers: cookie ? { cookie } : {} }), route({ token }));
+  (init.method === "POST" ? gate.POST : gate.GET)(new Request(`http://localhost/s/${token}`, { ...init, headers: withAddress(init.headers) }), route({ token }));
+const postPasscode = (token: string, passcode: string, address = "192.0.2.99") =>
+  door(token, { method: "POST", body: new URLSearchParams({ passcode }), headers: { "content-type": "application/x-www-form-urlencoded", "user-agent": "vitest-client", [PEER_HEADER]: address } });
+const manifest = async (token: string, cookie?: string) => manifestRoute.GET(new Request(`http://localhost/api/s/${token}/manifest`, { headers: withAddress(cookie ? { cookie } : {}) }), route({ token }));
 const media = (path: string, headers: Record<string, string> = {}, method = "GET") =>
   (method === "HEAD" ? mediaRoute.HEAD : mediaRoute.GET)(new Request(`http://localhost${path}`, { method, headers }), route({ grant: grantOf(path) }));
 async function viewOf(token: string, cookie?: string): Promise<ShareView> {
@@ -200,7 +210,7 @@ describe("the door page /s/:token", () => {
 });
 
 describe("passcode", () => {
-  it("asks, refuses wrong tries with 404, locks after five (even the right one), then opens with a cookie", async () => {
+  it("asks, refuses wrong tries with 404; after five from one address that address waits (429, Retry-After), the recipient's elsewhere does not; then opens with a cookie", async () => {
     const { id, token } = await shareOk({ jobId: job.jobId, scope: "job", passcode: "kestrel-2026" });
     const [row] = await db().select().from(s.shareLinks).where(eq(s.shareLinks.id, id));
     expect(row.passcodeHash).toMatch(/^\$2[aby]\$1[0-9]\$/); // bcrypt, cost >= 10
@@ -211,30 +221,27 @@ describe("passcode", () => {
     expect(await ask.text()).toContain('name="passcode"');
     expect((await manifest(token)).status).toBe(404); // no viewer data before the passcode
 
+    const stranger = "198.51.100.7";
     for (let i = 1; i <= 5; i++) {
-      const res = await postPasscode(token, `wrong-${i}`);
+      const res = await postPasscode(token, `wrong-${i}`, stranger);
       expect(res.status).toBe(404);
       expect(res.headers.get("set-cookie")).toBeNull();
     }
-    const [locked] = await db().select().from(s.shareLinks).where(eq(s.shareLinks.id, id));
-    expect(locked.failedPasscodeAttempts).toBe(5);
-    expect(locked.lockedUntil!.getTime()).toBeGreaterThan(Date.now() + 14 * 60_000);
-    const refusedWhileLocked = await postPasscode(token, "kestrel-2026");
-    expect(refusedWhileLocked.status).toBe(404);
-    expect(refusedWhileLocked.headers.get("set-cookie")).toBeNull();
+    const refusedWhileWaiting = await postPasscode(token, "kestrel-2026", stranger);
+    expect(refusedWhileWaiting.status).toBe(429);
+    expect(Number(refusedWhileWaiting.headers.get("retry-after"))).toBeGreaterThanOrEqual(29);
+    expect(refusedWhileWaiting.headers.get("set-cookie")).toBeNull();
+    expect(await refusedWhileWaiting.text()).toContain("Too many tries from here");
     const events = await db().select().from(s.shareLinkEvents).where(and(eq(s.shareLinkEvents.shareLinkId, id), eq(s.shareLinkEvents.kind, "passcode_refused")));
     expect(events.map((e) => e.detail).sort()).toEqual(["locked", "wrong", "wrong", "wrong", "wrong", "wrong"]);
 
-    // the lock runs out: the right passcode opens and resets the count
-    await db().update(s.shareLinks).set({ lockedUntil: new Date(Date.now() - 1000) }).where(eq(s.shareLinks.id, id));
-    const opened = await postPasscode(token, "kestrel-2026");
+    // the recipient, from their own address, is not kept out by the stranger's tries
+    const opened = await postPasscode(token, "kestrel-2026", "203.0.113.20");
     expect(opened.status).toBe(303);
     expect(opened.headers.get("location")).toBe(`/s/${token}/view`);
     const cookie = opened.headers.get("set-cookie")!.split(";")[0];
     expect(opened.headers.get("set-cookie")).toMatch(/HttpOnly/);
     expect(cookie).not.toContain(token);
-    const [reset] = await db().select().from(s.shareLinks).where(eq(s.shareLinks.id, id));
-    expect(reset.failedPasscodeAttempts).toBe(0);
     expect((await door(token, { headers: { cookie } })).status).toBe(303);
     expect((await manifest(token, cookie)).status).toBe(200);
 
@@ -243,12 +250,11 @@ describe("passcode", () => {
     expect((await manifest(second.token, cookie)).status).toBe(404);
   });
 
-  it("parallel guesses cannot pass the limit: five are compared, the rest refused as locked", async () => {
+  it("parallel guesses from one address cannot pass the limit: five are compared, the rest answered 429", async () => {
     const { id, token } = await shareOk({ jobId: job.jobId, scope: "job", passcode: "kestrel-2026" });
-    const answers = await Promise.all(Array.from({ length: 20 }, (_, i) => postPasscode(token, `guess-${i}`)));
-    expect(answers.every((r) => r.status === 404)).toBe(true);
-    const [row] = await db().select().from(s.shareLinks).where(eq(s.shareLinks.id, id));
-    expect(row.failedPasscodeAttempts).toBe(5);
+    const answers = await Promise.all(Array.from({ length: 20 }, (_, i) => postPasscode(token, `guess-${i}`, "198.51.100.8")));
+    expect(answers.filter((r) => r.status === 404)).toHaveLength(5);
+    expect(answers.filter((r) => r.status === 429)).toHaveLength(15);
     const events = await db().select().from(s.shareLinkEvents).where(eq(s.shareLinkEvents.shareLinkId, id));
     expect(events.filter((e) => e.detail === "wrong")).toHaveLength(5);
     expect(events.filter((e) => e.detail === "locked")).toHaveLength(15);
@@ -401,7 +407,7 @@ describe("what is recorded", () => {
     expect(view.findings.map((f) => f.id)).toEqual([job.fA.finding.id]);
     expect(view.recordings.map((r) => r.id)).toEqual([job.recA.id]);
 
-    const pdf = await media(view.report!.url, { "x-forwarded-for": "192.0.2.44", "user-agent": "vitest-client" });
+    const pdf = await media(view.report!.url, { [PEER_HEADER]: "192.0.2.44", "user-agent": "vitest-client" });
     expect(pdf.status).toBe(200);
     expect(pdf.headers.get("content-type")).toBe("application/pdf");
     expect(Buffer.from(await pdf.arrayBuffer()).equals(job.pdf)).toBe(true);
