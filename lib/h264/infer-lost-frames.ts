@@ -29,6 +29,11 @@
 //   one group is counted, as a lower bound. Encoders that count idr_pic_id up tell exactly how many.
 // - No gap consistent with the period: the loss went past the end of the group and took the next IDR
 //   with it; counted to the picture's smallest possible position in the next group, lower bound.
+// Every count is the fewest frames the stream allows. It is called "at least" where the stream itself
+// shows that more may be missing (a repeated idr_pic_id, a lost IDR, a frame_num wrap no later IDR
+// settles, no period at all). Frames lost at the end of a group before an IDR with the expected
+// idr_pic_id are counted exactly: with alternating ids, two more whole groups lost would read the
+// same, but nothing in the stream points to them.
 // Recovery point SEI (D.2.8) streams refresh without IDRs; with no IDR period they fall back to
 // frame_num gaps, which are lower bounds.
 import type { TracePicture } from "./signal-trace";
