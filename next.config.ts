@@ -20,6 +20,14 @@ const config: NextConfig = {
       },
       // share links (capability URLs): never sent on as a Referer, cached or indexed; listed after
       // the catch-all so its Referrer-Policy wins (lib/sharing/share-response-headers.ts)
+      // the API side of share links too: the viewer's manifest and its signed media addresses
+      {
+        source: "/api/s/:path*",
+        headers: [
+          { key: "Referrer-Policy", value: "no-referrer" },
+          { key: "X-Robots-Tag", value: "noindex, nofollow" },
+        ],
+      },
       {
         source: "/s/:path*",
         headers: [

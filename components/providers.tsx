@@ -3,6 +3,7 @@
 import { QueryClient, QueryClientProvider } from "@tanstack/react-query";
 import { SessionProvider } from "next-auth/react";
 import { useState } from "react";
+import "@/lib/validation/zod-in-browser";
 
 export function Providers({ children }: { children: React.ReactNode }) {
   const [client] = useState(
