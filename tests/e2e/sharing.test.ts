@@ -170,11 +170,11 @@ describe("sharing a finding's clip with a client", () => {
   });
 
   it("the client's viewing is counted for the share link in the recording's playback analytics", async () => {
-    // The page stays open until the watch time has arrived. mux-embed sends its queued events every
-    // 10 s (baseTimeBetweenBeacons) and once more on pagehide, but that last send is skipped while an
-    // earlier beacon POST is still in flight (its _sendBeaconQueue only marks a resend for after that
-    // POST, which never completes on a page being left): on a slow machine, leaving the page at once
-    // lost the events that carry the watch time, and the row kept 0.
+    // The watch time arrives in a later beacon than the view's first one, and that beacon carries no
+    // media grant (mux-embed sends custom_1 in a view's first event only): the collector adds it to
+    // the view the first beacon proved (lib/playback/share-viewer.ts knownShareViewer); before, it was
+    // refused and the row kept 0. The page stays open until then: mux-embed sends its queue every 10 s
+    // and once more on pagehide, but skips that last send while an earlier POST is still in flight.
     const [link] = await db().select({ id: s.shareLinks.id }).from(s.shareLinks).where(eq(s.shareLinks.tokenHash, hashShareToken(shareUrl.split("/").pop()!)));
     const views = () => db().select().from(s.playbackViews).where(eq(s.playbackViews.shareLinkId, link.id));
     await expect.poll(async () => Math.max(-1, ...(await views()).map((v) => v.watchTimeMs)), { timeout: 45_000, interval: 500 }).toBeGreaterThan(0);
