@@ -31,6 +31,7 @@ import { waitForRecordings, waitJobs } from "@/tests/support/wait-jobs";
 import { makeRecording } from "./support/make-recording";
 import { readMp4 } from "./support/read-mp4";
 import { ffprobeFrameCount, ffprobeSize } from "./support/probe-tools";
+import { readRecordingTrace } from "@/lib/media/read-recording-trace";
 
 let worker: RunningWorker;
 let orgId: string;
@@ -306,6 +307,14 @@ describe("a stream with lost frames", () => {
     expect(row.facts!.frameCount).toBe(whole.facts.frameCount);
     expect(row.figures).toMatchObject({ frameSlots: whole.facts.frameCount, framesLost: 3, framesLostIsLowerBound: false, rendition: "reencode" });
     expect(row.durationSec).toBe(whole.facts.frameCount / 30);
+    // The trace as the pages get it: the rendition keeps the recorder's clock, so a lost interval
+    // takes its own time in the player too, and the stored figures come along.
+    const view = await readRecordingTrace(row.organisationId, rec.id);
+    if (!view.applicable) throw new Error("expected a trace");
+    const lostView = view.intervals.find((i) => i.state === "lost")!;
+    expect(lostView.playableStartSec).toBe(lostView.startSec);
+    expect(lostView.playableEndSec - lostView.playableStartSec).toBeCloseTo(3 / 30, 9);
+    expect(view.figures).toMatchObject({ frameSlots: whole.facts.frameCount, framesLost: 3 });
   });
 });
 
