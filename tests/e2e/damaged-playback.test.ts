@@ -166,7 +166,9 @@ describe("a damaged recording in the review room", () => {
     const i = backFrames.findIndex((f) => f > 104 && f <= 130);
     expect(i, `a "Video back" event between the scrambled pictures and slot 130: ${backLabels.join(" | ")}`).toBeGreaterThanOrEqual(0);
     const back = backFrames[i];
-    await backs.nth(i).click();
+    // by keyboard: the events are buttons in the tab order
+    await backs.nth(i).focus();
+    await page.keyboard.press("Enter");
     await expect.poll(frameText).toContain(`frame ${back} `);
     await page.getByRole("heading", { name: "FADE0001.264" }).click();
     for (let k = 0; k < 3; k++) await page.keyboard.press(".");
