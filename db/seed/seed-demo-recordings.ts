@@ -51,7 +51,6 @@ export const DEMO_FILES: DemoFile[] = [
   // the recorder closed the first file when the video was lost, and opened this one about 6 s later
   { flightKeyIndex: 0, name: "VID_0002.h264", pattern: "testsrc2", seconds: 8, startSec: 26, damage: { remove: [40, 41, 42, 130], scramble: [75] } },
   { flightKeyIndex: 1, name: "VID_0003.h264", pattern: "smptebars", seconds: 10, startSec: 0 },
-  { flightKeyIndex: 1, name: "VID_0004.h264", pattern: "testsrc", seconds: 8, startSec: 60 },
 ];
 
 const COUNTER_FONT = "/usr/share/fonts/truetype/dejavu/DejaVuSans.ttf";
