@@ -70,10 +70,14 @@ start_smtp() {
   mkdir -p "$DATA/mail"
   # a process group of its own (setsid), so stopping the group also stops the node process and the
   # esbuild service that tsx starts; its id is kept so down.sh stops this server and no other
-  # (setsid may fork, so the new session's leader writes its own pid, then becomes the server)
-  (cd "$ROOT" && CAIRN_SMTP_PORT="$SMTP_PORT" MAIL_DIR="$DATA/mail" PIDFILE="$SMTP_PIDFILE" \
-    setsid bash -c 'echo $$ > "$PIDFILE"; exec node_modules/.bin/tsx docker-less-dev/fake-smtp.ts' \
-    >>"$DATA/logs/fake-smtp.log" 2>&1 </dev/null &)
+  # (setsid may fork, so the new session's leader writes its own pid, then becomes the server). The
+  # background subshell's own output goes to the log too and it execs, so nothing of it keeps this
+  # script's stdout open: a caller reading that to its end (npm test) is not kept waiting.
+  (
+    cd "$ROOT" || exit 1
+    CAIRN_SMTP_PORT="$SMTP_PORT" MAIL_DIR="$DATA/mail" PIDFILE="$SMTP_PIDFILE" \
+      exec setsid bash -c 'echo $$ > "$PIDFILE"; exec node_modules/.bin/tsx docker-less-dev/fake-smtp.ts'
+  ) >>"$DATA/logs/fake-smtp.log" 2>&1 </dev/null &
   for _ in $(seq 1 100); do (exec 3<>"/dev/tcp/127.0.0.1/$SMTP_PORT") 2>/dev/null && break; sleep 0.1; done
   note_started smtp
   log "fake mail server on 127.0.0.1:$SMTP_PORT (messages in $DATA/mail)"
