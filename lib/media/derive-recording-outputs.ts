@@ -433,7 +433,9 @@ async function deriveFromContainer(input: DeriveInput, kind: MediaKind, report: 
     workDir,
     span(report, 93, 99, "sealing the outputs"),
   );
-  const fps = source.video.fps && source.video.fps > 0 ? source.video.fps : playable.video.frameCount / durationSec;
+  // A container's rate as it states it; a variable-rate file's placeholder (e.g. 90000) is not a frame rate.
+  const stated = source.video.fps;
+  const fps = stated && stated > 0 && stated <= 240 ? stated : Math.min(240, Math.max(1, playable.video.frameCount / durationSec));
   const figures = computeRecordingFigures({
     frameRate: frameRateFromFps(fps),
     states: null,
