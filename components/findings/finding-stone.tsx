@@ -1,4 +1,4 @@
-// A finding's stone: the outline grows thicker with severity (LOOK.md). Always drawn beside the
+// A finding's stone: the outline grows thicker with severity (docs/look.md). Always drawn beside the
 // severity word or inside a control labelled with it; the shape repeats the word, never replaces it.
 import { SEVERITY_SCALE, type Severity } from "@/lib/findings/severity-scale";
 

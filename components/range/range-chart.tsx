@@ -13,7 +13,7 @@ import { formatMetresIn } from "@/lib/range/format-figures";
 import type { DisplayUnits } from "@/lib/validation/range-checks";
 import { LinkEventMark } from "./link-event-mark";
 
-// colour repeats what shape and label already say (LOOK.md)
+// colour repeats what shape and label already say (WCAG 2.2 SC 1.4.1; docs/look.md)
 const FILL: Record<LinkEvent, string> = { first_degradation: "#0f6e7a", total_loss: "#9b1c1c", reacquired: "#1d2430" };
 
 export function RangeChart({ flightId, flightLabel, units }: { flightId: string | null; flightLabel: string | null; units: DisplayUnits }) {

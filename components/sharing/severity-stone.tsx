@@ -1,4 +1,4 @@
-// The finding marker: a small stone whose outline grows thicker with severity (LOOK.md). It always
+// The finding marker: a small stone whose outline grows thicker with severity (docs/look.md). It always
 // sits beside the severity word; the shape repeats the word, it never replaces it.
 import { SEVERITY_SCALE, type Severity } from "@/lib/findings/severity-scale";
 

@@ -1,6 +1,7 @@
 "use client";
 // A plain, read-only video.js player for the client's page. Created in an effect and disposed on
-// cleanup (video.js breaks under StrictMode's double mount otherwise: STACK-NOTES.md). A new source
+// cleanup (video.js breaks under StrictMode's double mount otherwise: video.js issue #7746 and its
+// React guide; docs/library-notes.md). A new source
 // (another recording, or a fresh signed address after the old one expired) keeps the position.
 import { forwardRef, useEffect, useImperativeHandle, useRef, useState } from "react";
 import videojs from "video.js";

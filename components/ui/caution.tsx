@@ -1,5 +1,5 @@
 // A quiet bordered caution beside the figure it qualifies: one-line summary, full text on demand.
-// Never a modal (LOOK.md, "Cautions").
+// Never a modal (docs/look.md, "Cautions").
 export function Caution({ summary, detail, sources }: { summary: string; detail?: string; sources?: string[] }) {
   return (
     <aside role="note" className="rounded-md border border-warn/60 bg-warn-soft px-3 py-2 text-sm text-ink">

@@ -1,5 +1,5 @@
 // The altitude caution beside an altitude figure, when the height is above the common 120 m / 400 ft
-// limit: a quiet bordered box, never a modal (LOOK.md, "Cautions").
+// limit: a quiet bordered box, never a modal (docs/look.md, "Cautions").
 import { Caution } from "@/components/ui/caution";
 import { altitudeCautionsToShow } from "@/lib/work/format-altitude";
 

@@ -1,4 +1,4 @@
-// A position in decimal degrees, in mono (LOOK.md: anything exact is mono), or a dash.
+// A position in decimal degrees, in mono (docs/look.md: anything exact is mono), or a dash.
 export function Coordinates({ lat, lon }: { lat: number | null; lon: number | null }) {
   if (lat == null || lon == null) return <span className="text-ink-2">—</span>;
   return (

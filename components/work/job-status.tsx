@@ -1,5 +1,5 @@
-// A job's status as a word with a shape (never colour alone, LOOK.md), and the legend that says
-// what each status means.
+// A job's status as a word with a shape (never colour alone: WCAG 2.2 SC 1.4.1, docs/look.md), and the
+// legend that says what each status means.
 import { JOB_STATUSES, JOB_STATUS_MEANING, type JobStatus } from "@/lib/validation/work";
 
 // the circle fills as the work advances; closed is a square: finished and filed

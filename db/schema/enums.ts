@@ -1,4 +1,4 @@
-// Closed sets of the product's vocabulary (DESIGN.md). Labels and meanings shown in the UI live in lib/.
+// Closed sets of the product's vocabulary (docs/product-rules.md). Labels and meanings shown in the UI live in lib/.
 import { pgEnum } from "drizzle-orm/pg-core";
 
 export const roleEnum = pgEnum("member_role", ["owner", "pilot", "reviewer", "client"]);

@@ -1,4 +1,4 @@
-// The invented demo scenario (DESIGN.md): a fictional crew, fictional clients, made-up sites in open
+// The invented demo scenario (docs/product-rules.md): a fictional crew, fictional clients, made-up sites in open
 // country. Every name here is invented; the e-mail domain is reserved for examples (RFC 2606).
 export const DEMO_PASSWORD = "cairn-demo-2026";
 

@@ -1,5 +1,5 @@
 // Roles map to permissions in one flat table. Every route handler and server action names the
-// permission it needs; nothing else decides access (DESIGN.md, "Rules of the house").
+// permission it needs; nothing else decides access (docs/product-rules.md, "Rules of the house").
 import type { Role } from "@/db/schema/types";
 
 export const PERMISSIONS = [

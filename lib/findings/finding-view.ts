@@ -1,5 +1,5 @@
 // What the API and pages show of a finding: its own columns, the category and author names, the
-// recording's name and original hash, and its newest still. Never the whole row (CONVENTIONS.md).
+// recording's name and original hash, and its newest still. Never the whole row (DEVELOPERS.md, "Data").
 import { and, asc, desc, eq, inArray, isNull, type SQL } from "drizzle-orm";
 import { db, type DbOrTx } from "@/db/client";
 import { findingCategories, findings, recordings, stills, users } from "@/db/schema";

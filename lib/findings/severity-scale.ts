@@ -1,6 +1,6 @@
 // Our severity words for a finding, each with a written meaning, the FHWA National Bridge Inventory
 // condition rating it corresponds to (Recording and Coding Guide, items 58-62; 0 Failed .. 9 Excellent),
-// and the outline thickness of its stone-shaped timeline marker (LOOK.md: thicker outline, worse finding).
+// and the outline thickness of its stone-shaped timeline marker (docs/look.md: thicker outline, worse finding).
 //
 // The NBI rates a whole component, we rate one observed defect: the number says "a component showing
 // this defect would rate no better than N". We keep our own words because crews inspect roofs, towers
@@ -42,7 +42,7 @@ export const SEVERITY_SCALE: Readonly<Record<Severity, SeverityLevel>> = {
     label: "Moderate",
     meaning: "Deterioration that is sound for now but will grow: plan a repair within the maintenance cycle.",
     nbiRating: 5,
-    nbiWord: "Fair", // 5 = Fair (FHWA Recording and Coding Guide, as quoted in CHECKS.md)
+    nbiWord: "Fair", // 5 = Fair (FHWA Recording and Coding Guide; docs/outside-checks.md)
     outlinePx: 2,
   },
   major: {
@@ -50,7 +50,7 @@ export const SEVERITY_SCALE: Readonly<Record<Severity, SeverityLevel>> = {
     label: "Major",
     meaning: "Advanced deterioration or section loss: schedule a repair soon and check again before then.",
     nbiRating: 4,
-    nbiWord: "Poor", // 4 = Poor; overall Poor is 0-4 (CHECKS.md)
+    nbiWord: "Poor", // 4 = Poor; overall Poor is 0-4 (FHWA good/fair/poor; docs/outside-checks.md)
     outlinePx: 2.75,
   },
   severe: {
@@ -58,7 +58,7 @@ export const SEVERITY_SCALE: Readonly<Record<Severity, SeverityLevel>> = {
     label: "Severe",
     meaning: "The defect seriously affects a primary element; local failure is possible. Act promptly and restrict use if in doubt.",
     nbiRating: 3,
-    nbiWord: "Serious", // 3 = Serious (CHECKS.md)
+    nbiWord: "Serious", // 3 = Serious (FHWA Recording and Coding Guide)
     outlinePx: 3.5,
   },
   critical: {
@@ -66,7 +66,7 @@ export const SEVERITY_SCALE: Readonly<Record<Severity, SeverityLevel>> = {
     label: "Critical",
     meaning: "Failure is possible without prompt action: tell the asset owner today and keep people clear until it is made safe.",
     nbiRating: 2,
-    nbiWord: "Critical", // 2 = Critical (CHECKS.md)
+    nbiWord: "Critical", // 2 = Critical (FHWA Recording and Coding Guide)
     outlinePx: 4.5,
   },
 };

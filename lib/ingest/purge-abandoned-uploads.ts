@@ -1,6 +1,7 @@
 // The scheduled clean-up of the upload path (job "purge-uploads"; the worker schedules it).
 //   - An unfinished upload older than the expiry is deleted (data and info). A finished one is
-//     never deleted by age: tus's own expiry clean-up would (STACK-NOTES), so it is not used.
+//     never deleted by age: tus's own expiry clean-up would (@tus/file-store deleteExpired compares
+//     the offset written at creation; docs/library-notes.md), so it is not used.
 //   - A complete upload whose commit never ran (server died, response lost, client gone) is
 //     committed now, once it has been quiet for a while.
 //   - The record of a settled upload (tombstone) is dropped after its time to live.

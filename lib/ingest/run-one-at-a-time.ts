@@ -1,5 +1,5 @@
 // Runs async work one at a time per key, in the order it was asked for, within this process.
-// The upload server is one process per staging folder (STACK-NOTES.md, tus), so this is enough to
+// The upload server is one process per staging folder (docs/library-notes.md, "tus"), so this is enough to
 // make "check the quota, then reserve" a single step for each organisation.
 export class OneAtATime {
   private readonly tails = new Map<string, Promise<unknown>>();

@@ -1,5 +1,6 @@
 // The tus 1.0.0 server behind /api/uploads (creation, termination and expiration extensions), one
-// per process: its lock is in memory, so one upload server serves one staging folder (STACK-NOTES).
+// per process: its lock is in memory, so one upload server serves one staging folder (@tus/server
+// README, options.locker; docs/library-notes.md).
 // The Next route and the stand-alone test server both use this module, so tests exercise exactly
 // the hooks production runs.
 //

@@ -1,7 +1,8 @@
 // How the playable MP4 is made: H.264 that browsers decode (8-bit 4:2:0, progressive) is copied
 // without re-encoding; anything else is transcoded with libx264. Raw Annex B input gets its frame
-// rate from `-r` (the raw demuxer has no timestamps; STACK-NOTES.md: input -r sets the rate even when
-// the SPS carries timing info) and starts at the first IDR picture when the stream starts mid-GOP.
+// rate from `-r` (the raw demuxer has no timestamps; input -r sets the rate even when the SPS carries
+// timing info: ffmpeg manual, option -r, and docs/library-notes.md, "ffmpeg on raw H.264") and starts
+// at the first IDR picture when the stream starts mid-GOP.
 import { formatRateForFfmpeg } from "./choose-frame-rate";
 
 // Deterministic output (no encoder version string), so a second run writes the same bytes.

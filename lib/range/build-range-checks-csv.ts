@@ -15,7 +15,7 @@ export type RangeCheckExportRow = RangeCheckMeasures & {
 };
 
 // Every length twice, metres and feet, so a reader in either unit never converts by hand; the unit
-// is in every header (LOOK.md: units always written).
+// is in every header (docs/look.md: units always written).
 export const RANGE_CHECK_CSV_HEADER = [
   "Flown on",
   "Job",

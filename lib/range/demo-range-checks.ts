@@ -1,4 +1,4 @@
-// Invented range checks for the demo flights (DESIGN.md, "Demo scenario"): every figure here is made
+// Invented range checks for the demo flights (docs/product-rules.md, demo scenario): every figure here is made
 // up to give the chart something to compare; none was measured. The slant range and coordinates are
 // computed from the invented distance, bearing and height exactly as the API would compute them.
 import type { InferInsertModel } from "drizzle-orm";

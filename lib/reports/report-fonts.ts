@@ -1,4 +1,4 @@
-// The report's type (LOOK.md). Text: IBM Plex Sans, read from the @fontsource package (latin
+// The report's type (docs/look.md). Text: IBM Plex Sans, read from the @fontsource package (latin
 // subset, WOFF). Exact figures (timecodes, hashes, coordinates): IBM Plex Mono, from a TrueType file
 // shipped beside this module: the PDF library's font engine (fontkit) fails on the @fontsource Plex
 // Mono WOFF and WOFF2 files ("Offset is outside the bounds of the DataView" as soon as a space is

@@ -8,7 +8,7 @@ export function shareLinkStatus(link: { revokedAt: Date | null; expiresAt: Date 
   return "active";
 }
 
-// Words first; the symbol repeats the word for a glance, never replaces it (LOOK.md).
+// Words first; the symbol repeats the word for a glance, never replaces it (WCAG 2.2 SC 1.4.1; docs/look.md).
 export const SHARE_STATUS_LABELS: Record<ShareLinkStatus, { label: string; symbol: string; meaning: string }> = {
   active: { label: "Active", symbol: "●", meaning: "Opens for anyone holding the link (and the passcode, if set)." },
   expired: { label: "Expired", symbol: "◌", meaning: "Past its expiry: the link and every media address under it are refused." },

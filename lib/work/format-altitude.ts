@@ -1,5 +1,5 @@
 // Altitudes above ground as people read them: in their own unit first, the other in brackets,
-// always with the unit written (LOOK.md).
+// always with the unit written (docs/look.md).
 import { formatLength, fromMetres } from "@/lib/geo/units";
 import { altitudeCautions } from "@/lib/geo/cautions";
 

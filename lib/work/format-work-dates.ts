@@ -1,4 +1,4 @@
-// Calendar dates in a site's time zone, written as ISO 8601 (LOOK.md: "2026-03-14").
+// Calendar dates in a site's time zone, written as ISO 8601 (docs/look.md: "2026-03-14").
 import type { JobStatus } from "@/lib/validation/work";
 
 /** The calendar date of an instant in a time zone, as YYYY-MM-DD. */

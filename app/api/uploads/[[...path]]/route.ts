@@ -6,7 +6,8 @@ import { handleUploadRequest } from "@/lib/ingest/handle-upload-request";
 export const runtime = "nodejs";
 export const dynamic = "force-dynamic";
 
-// bound wrappers, never `server.handleWeb` itself (STACK-NOTES.md, tus)
+// bound wrappers, never `server.handleWeb` itself: it is a method that needs its `this`
+// (@tus/server source; docs/library-notes.md, "tus")
 export const GET = (req: Request) => handleUploadRequest(req);
 export const HEAD = (req: Request) => handleUploadRequest(req);
 export const POST = (req: Request) => handleUploadRequest(req);
