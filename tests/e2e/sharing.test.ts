@@ -38,7 +38,7 @@ const recipient = `claims-${randomUUID().slice(0, 8)}@client.example`;
 const root = path.resolve(__dirname, "../..");
 
 async function playableMp4(): Promise<Buffer> {
-  // a raw controller-like stream remuxed without re-encoding, as STACK-NOTES.md describes
+  // a raw controller-like stream remuxed without re-encoding, as docs/library-notes.md describes
   const raw = await makeRawH264({ seconds: 4, width: 432, height: 240, fps: 30 });
   const out = path.join(os.tmpdir(), `cairn-e2e-share-${process.pid}.mp4`);
   await runTool("ffmpeg", ["-v", "error", "-y", "-f", "h264", "-r", "30", "-i", raw, "-c", "copy", "-movflags", "+faststart", out]);

@@ -1,4 +1,4 @@
-// Debian's chromium driven by playwright-core; never a downloaded browser (STACK-NOTES.md).
+// Debian's chromium driven by playwright-core; never a downloaded browser (docs/library-notes.md).
 import { chromium, type Browser, type BrowserContext, type Page } from "playwright-core";
 import { E2E_PORT } from "./test-env";
 import { DEMO_PASSWORD } from "@/db/seed/demo-scenario";

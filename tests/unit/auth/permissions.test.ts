@@ -1,4 +1,4 @@
-// The role -> permission table, checked against the roles DESIGN.md describes (owner sets up and
+// The role -> permission table, checked against the roles docs/product-rules.md describes (owner sets up and
 // manages everything; pilot uploads and logs flights and range checks; reviewer marks findings and
 // builds reports; client accounts only read).
 import { describe, expect, it } from "vitest";

@@ -3,7 +3,7 @@ import { Readable } from "node:stream";
 import { describe, expect, it } from "vitest";
 import { sha256OfStream } from "@/lib/custody/sha256-stream";
 
-// FIPS 180-4 SHA-256 examples, as listed in CHECKS.md (Integrity).
+// FIPS 180-4 SHA-256 examples (NIST), as listed in docs/outside-checks.md (Integrity).
 const FIPS_VECTORS: Array<[string, string]> = [
   ["abc", "ba7816bf8f01cfea414140de5dae2223b00361a396177a9cb410ff61f20015ad"],
   ["", "e3b0c44298fc1c149afbf4c8996fb92427ae41e4649b934ca495991b7852b855"],

@@ -4,7 +4,7 @@ import { describeMoment, formatMoment } from "@/lib/findings/describe-moment";
 import { FRAME_RATES } from "@/lib/timecode/frame-rate";
 
 describe("describeMoment", () => {
-  it("names SMPTE ST 12-1 worked values (CHECKS.md): 29.97 DF frame 1800 is 00:01:00;02, 17982 is 00:10:00;00", () => {
+  it("names SMPTE ST 12-1 worked values: 29.97 DF frame 1800 is 00:01:00;02, 17982 is 00:10:00;00", () => {
     expect(describeMoment(1800, FRAME_RATES.fps29_97).smpte).toBe("00:01:00;02");
     expect(describeMoment(17982, FRAME_RATES.fps29_97).smpte).toBe("00:10:00;00");
     expect(describeMoment(15000, FRAME_RATES.fps25).smpte).toBe("00:10:00:00");

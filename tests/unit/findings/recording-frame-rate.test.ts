@@ -2,7 +2,7 @@ import { describe, expect, it } from "vitest";
 import { frameRateFromFps, recordingTiming } from "@/lib/findings/recording-frame-rate";
 
 describe("frameRateFromFps", () => {
-  // SMPTE ST 12-1: 29.97 and 59.94 are 30000/1001 and 60000/1001 exactly (CHECKS.md, Time)
+  // SMPTE ST 12-1: 29.97 and 59.94 are 30000/1001 and 60000/1001 exactly (docs/outside-checks.md, Time)
   it.each([
     [30000 / 1001, { num: 30000, den: 1001 }],
     [29.97, { num: 30000, den: 1001 }],

@@ -24,7 +24,7 @@ describe("caution texts", () => {
   });
 
   it("cite the rules they paraphrase", () => {
-    // CHECKS.md, "Aviation rules behind the cautions": 14 CFR 107.51 (400 ft AGL, 3 statute miles
+    // docs/outside-checks.md, "Aviation rules behind the cautions": 14 CFR 107.51 (400 ft AGL, 3 statute miles
     // visibility), 14 CFR 107.31 (visual line of sight), EU 2019/947 Art. 4(1)(e) (120 m).
     const byId = Object.fromEntries(CAUTIONS.map((c) => [c.id, c]));
     expect(byId["altitude-limit"].sources.join(" ")).toMatch(/107\.51/);
@@ -37,7 +37,8 @@ describe("caution texts", () => {
   });
 
   it("defer to local rules and the pilot in command and never give a verdict", () => {
-    // DESIGN.md Safety: cautions, never a verdict; the app defers to local rules and the pilot in command.
+    // docs/product-rules.md, "Safety cautions": never a verdict; the app defers to local rules and the
+    // pilot in command.
     const verdict = /\b(illegal|unlawful|violat\w*|prohibited|forbidden|compliant|non-compliant|safe to fly|you may fly|you must not|approved)\b/i;
     for (const c of CAUTIONS) {
       expect(c.detail, c.id).toMatch(/pilot in command decides/);

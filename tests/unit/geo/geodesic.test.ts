@@ -108,7 +108,9 @@ describe("direct", () => {
   });
 
   it("inverts inverse(): going out on our bearing for our distance returns to point 2 within 1 mm", () => {
-    // Round trip of our two functions over the GeodTest end points (brief: within 1 mm); measured worst 5.6e-9 m.
+    // Round trip of our two functions over the GeodTest end points. 1 mm is our tolerance: far below the
+    // finest step a distance is shown in (0.1 ft, about 3 cm), far above GeographicLib's round-off (its
+    // tests hold s12 to 1e-8 m), so it catches a wrong bearing or swapped points; measured worst 5.6e-9 m.
     for (const l of sample) {
       const r = inverse(l.lat1, l.lon1, l.lat2, l.lon2);
       const p = direct(l.lat1, l.lon1, r.initialBearingDeg, r.distanceM);

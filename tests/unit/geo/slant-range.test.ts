@@ -4,7 +4,8 @@ import { feetToMetres, formatLength, metresToFeet } from "@/lib/geo/units";
 
 describe("slantRange", () => {
   it("6000 ft AGL over 8000 ft of ground is 10,000 ft", () => {
-    // Published worked example (CHECKS.md, Pythagoras: the 3-4-5 right triangle scaled by 2000).
+    // Pythagoras' theorem on the 3-4-5 right triangle scaled by 2000: 6000^2 + 8000^2 = 10,000^2, a value
+    // any reader can check by hand (docs/outside-checks.md, "Slant range").
     expect(slantRange({ groundDistance: 8000, heightAgl: 6000 })).toBe(10_000);
   });
 

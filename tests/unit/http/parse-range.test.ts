@@ -14,7 +14,7 @@ const cases: Array<[string, string | null, number, RangeResult]> = [
   ["RFC 9110 14.1.2: last-pos past the end is clamped to length - 1", "bytes=9000-20000", LENGTH, { kind: "partial", start: 9000, end: 9999 }],
   ["RFC 9110 14.1.2: suffix longer than the representation takes all of it", "bytes=-20000", LENGTH, { kind: "partial", start: 0, end: 9999 }],
   ["RFC 9110 14.1.2: single last byte", "bytes=9999-9999", LENGTH, { kind: "partial", start: 9999, end: 9999 }],
-  ["Safari's first probe: bytes=0-1 (STACK-NOTES.md)", "bytes=0-1", LENGTH, { kind: "partial", start: 0, end: 1 }],
+  ["Safari's first probe: bytes=0-1 (docs/library-notes.md)", "bytes=0-1", LENGTH, { kind: "partial", start: 0, end: 1 }],
   ["RFC 9110 14.1: range unit is case-insensitive", "Bytes=0-499", LENGTH, { kind: "partial", start: 0, end: 499 }],
   ["RFC 9110 5.6.1: empty list elements are ignored", "bytes=, 0-499 ,", LENGTH, { kind: "partial", start: 0, end: 499 }],
   ["RFC 9110 14.1.2: first-pos at the length is unsatisfiable (416)", "bytes=10000-", LENGTH, { kind: "unsatisfiable" }],

@@ -1,6 +1,6 @@
 // Next's proxy.ts (formerly middleware.ts) buffers the bodies of the requests it matches and keeps
-// only the first 10 MB (STACK-NOTES.md). The uploader's PATCHes are larger than that
-// (UPLOAD_CHUNK_BYTES), so the upload route must never be matched: this guards against a proxy
+// only the first 10 MB (Next.js docs, proxyClientMaxBodySize; docs/library-notes.md). The uploader's
+// PATCHes are larger than that (UPLOAD_CHUNK_BYTES), so the upload route must never be matched: this guards against a proxy
 // added later without the exclusion.
 import { existsSync, readFileSync } from "node:fs";
 import path from "node:path";

@@ -47,8 +47,9 @@ describe("computeRangeCheckFigures from ground distance and bearing", () => {
     expect(metresToFeet(f.slantRangeM).toFixed(1)).toBe("1967.1");
   });
 
-  it("gives the published example: 6000 ft AGL over 8000 ft of ground is 10,000 ft", () => {
-    // CHECKS.md: slant range = sqrt(AGL^2 + ground^2), 6000 ft AGL, 8000 ft ground -> 10,000 ft
+  it("gives Pythagoras' 3-4-5 triangle: 6000 ft AGL over 8000 ft of ground is 10,000 ft", () => {
+    // slant range = sqrt(AGL^2 + ground^2) (Pythagoras' theorem); the 3-4-5 right triangle scaled by 2000,
+    // checkable by hand (docs/outside-checks.md): 6000 ft AGL, 8000 ft ground -> 10,000 ft
     const f = computeRangeCheckFigures(null, { by: "distance", groundDistanceM: feetToMetres(8000), bearingDeg: null }, feetToMetres(6000));
     expect(metresToFeet(f.slantRangeM)).toBeCloseTo(10_000, 9);
   });

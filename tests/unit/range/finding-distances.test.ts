@@ -17,8 +17,9 @@ describe("findingDistances", () => {
     expect(d.slantDistanceM).toBeCloseTo(Math.hypot(ref.s12, 6), 9);
   });
 
-  it("reproduces the published slant example on a point placed 8000 ft away", () => {
-    // CHECKS.md: 6000 ft AGL, 8000 ft ground -> 10,000 ft slant. The point is placed with
+  it("gives 10,000 ft slant for 6000 ft AGL on a point placed 8000 ft away (3-4-5 triangle)", () => {
+    // Pythagoras on the 3-4-5 right triangle scaled by 2000, checkable by hand (docs/outside-checks.md):
+    // 6000 ft AGL, 8000 ft ground -> 10,000 ft slant. The point is placed with
     // GeographicLib Direct, so the ground leg is 8000 ft to GeographicLib's accuracy.
     const p = wgs84.Direct(launch.lat, launch.lon, 47, feetToMetres(8000));
     const d = findingDistances(launch, { latitude: p.lat2, longitude: p.lon2, heightAglM: feetToMetres(6000) })!;

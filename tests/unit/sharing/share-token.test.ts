@@ -27,7 +27,7 @@ describe("share tokens", () => {
   });
 
   it("are stored as the SHA-256 of their text (FIPS 180-4 example: 'abc')", () => {
-    // FIPS 180-4 / CHECKS.md: SHA-256("abc")
+    // FIPS 180-4 (NIST example; docs/outside-checks.md): SHA-256("abc")
     expect(hashShareToken("abc")).toBe("ba7816bf8f01cfea414140de5dae2223b00361a396177a9cb410ff61f20015ad");
     const t = generateShareToken();
     expect(hashShareToken(t)).toMatch(/^[0-9a-f]{64}$/);

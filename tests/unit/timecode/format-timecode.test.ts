@@ -16,7 +16,7 @@ function errorCode(fn: () => unknown): string | undefined {
   return undefined;
 }
 
-describe("SMPTE ST 12-1 worked values (CHECKS.md, Time)", () => {
+describe("SMPTE ST 12-1 worked values (docs/outside-checks.md, Time)", () => {
   // SMPTE ST 12-1 drop-frame at 30000/1001: ;00 and ;01 are skipped at each minute except every tenth.
   it("29.97 DF: frame 17982 is 00:10:00;00 and back", () => {
     expect(formatTimecode(17982, FRAME_RATES.fps29_97)).toBe("00:10:00;00");

@@ -32,7 +32,7 @@ describe("time of frame N = N * den / num", () => {
   });
 
   it("places drop-frame timecode against the wall clock", () => {
-    // 00:10:00;00 (frame 17982, SMPTE ST 12-1 worked value in CHECKS.md) comes 0.6 ms before ten minutes
+    // 00:10:00;00 (frame 17982, SMPTE ST 12-1 worked value; docs/outside-checks.md) comes 0.6 ms before ten minutes
     // of real time, and a full day of drop-frame labels (144 x 17982 frames) runs out 86.4 ms before
     // 24 h of real time: the known residual of drop-frame counting (86.4 ms/day recalled from memory).
     expect(timeOfFrame(parseTimecode("00:10:00;00", FRAME_RATES.fps29_97), FRAME_RATES.fps29_97)).toBeCloseTo(599.9994, 9);
