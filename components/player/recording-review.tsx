@@ -20,7 +20,7 @@ import { BoxOverlay } from "./box-overlay";
 import { TimecodeReadout } from "./timecode-readout";
 import { ShortcutHelp } from "./shortcut-help";
 import { PlaybackViews } from "./playback-views";
-import { RecordingTracePanel } from "@/components/trace/recording-trace-panel";
+import { linkStateAt, RecordingTracePanel, useRecordingTrace } from "@/components/trace/recording-trace-panel";
 import { FlightTimeline } from "@/components/flight-timeline/flight-timeline";
 import { PLAYBACK_RATES, shortcutFor } from "./review-shortcuts";
 
@@ -101,6 +101,7 @@ function ReviewRoom({
   const items = useMemo(() => findings.data?.items ?? [], [findings.data]);
   const selected = items.find((f) => f.id === selectedId) ?? null;
   const formRef = useRef<HTMLDivElement>(null);
+  const trace = useRecordingTrace(recording.id);
 
   const jumpTo = useCallback((f: FindingItem) => {
     setSelectedId(f.id);
@@ -204,7 +205,7 @@ function ReviewRoom({
           )}
         />
         <div className="flex flex-wrap items-center gap-3 rounded-md border border-line bg-paper-2 px-3 py-2">
-          <TimecodeReadout frame={frame} rate={rate} frameCount={frameCount} fps={fps} playbackRate={playbackRate} durationSec={durationSec} lost={timing.lost} />
+          <TimecodeReadout frame={frame} rate={rate} frameCount={frameCount} fps={fps} playbackRate={playbackRate} durationSec={durationSec} lost={timing.lost} linkState={timing.recorderClock ? linkStateAt(trace.data, frame) : null} />
           <div className="ml-auto flex flex-wrap items-center gap-1">
             <Button type="button" variant="secondary" className="px-3" onClick={() => player.current?.stepFrames(-1)} aria-label="One frame back">
               ◀︎ Frame

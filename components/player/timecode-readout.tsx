@@ -15,6 +15,7 @@ export function TimecodeReadout({
   playbackRate,
   durationSec,
   lost,
+  linkState = null,
 }: {
   frame: number;
   rate: FrameRate;
@@ -23,6 +24,8 @@ export function TimecodeReadout({
   playbackRate: number;
   durationSec: number;
   lost: { frames: number; isLowerBound: boolean } | null;
+  /** the link's state at this frame slot, from the signal trace */
+  linkState?: "intact" | "damaged" | "lost" | null;
 }) {
   const m = describeMoment(frame, rate);
   return (
@@ -40,6 +43,16 @@ export function TimecodeReadout({
       <span className="text-sm" data-testid="smpte" title={m.smpte?.includes(";") ? "SMPTE timecode, drop-frame" : "SMPTE timecode"}>
         {m.smpte ?? "no SMPTE label at this rate"}
       </span>
+      {linkState === "lost" && (
+        <span className="rounded border border-bad bg-bad-soft px-1.5 font-sans text-xs" data-testid="frame-link-state" title="This frame never reached the recorder; the player holds the last frame before the loss">
+          <span aria-hidden>▲ </span>Video lost here: last frame held
+        </span>
+      )}
+      {linkState === "damaged" && (
+        <span className="rounded border border-line px-1.5 font-sans text-xs" data-testid="frame-link-state" title="Slices of this frame were missing or scrambled, or it was predicted from a lost frame">
+          <span aria-hidden>● </span>Picture breaking up
+        </span>
+      )}
       <span className="text-xs text-ink-2">
         {Number.isInteger(fps) ? fps : fps.toFixed(3)} fps · speed {playbackRate}×
       </span>

@@ -13,7 +13,7 @@ import { TraceBand } from "./trace-band";
 import { TraceSummaryLine } from "./trace-summary";
 import type { BandInterval } from "./layout-trace-band";
 
-type TraceView =
+export type TraceView =
   | {
       applicable: true;
       fps: number;
@@ -22,6 +22,20 @@ type TraceView =
       decoderErrorFrameCount: number;
     }
   | { applicable: false; reason: string; state: string };
+
+/** The recording's trace, fetched once per page (the readout and the panel share the query). */
+export function useRecordingTrace(recordingId: string) {
+  return useQuery({
+    queryKey: ["recording-trace", recordingId],
+    queryFn: () => fetchJson<TraceView>(`/api/recordings/${recordingId}/trace`),
+  });
+}
+
+/** The link state at recorder frame slot `frame`, when the trace is known. */
+export function linkStateAt(trace: TraceView | undefined, frame: number): "intact" | "damaged" | "lost" | null {
+  if (!trace?.applicable) return null;
+  return trace.intervals.find((i) => frame >= i.startFrame && frame < i.endFrame)?.state ?? null;
+}
 
 export function RecordingTracePanel({
   recordingId,
@@ -39,10 +53,7 @@ export function RecordingTracePanel({
   figures?: RecordingFigures | null;
   rate?: FrameRate;
 }) {
-  const q = useQuery({
-    queryKey: ["recording-trace", recordingId],
-    queryFn: () => fetchJson<TraceView>(`/api/recordings/${recordingId}/trace`),
-  });
+  const q = useRecordingTrace(recordingId);
   if (q.isPending) return <p className="text-sm text-ink-2">Loading the signal trace…</p>;
   if (q.isError) return <p className="text-sm text-bad">The signal trace could not be loaded: {q.error.message}</p>;
   const t = q.data;

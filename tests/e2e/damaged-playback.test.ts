@@ -51,6 +51,26 @@ const videoState = () =>
   });
 const frameText = () => page.getByTestId("frame-number").innerText();
 
+/** The picture the browser paints now, as 8-bit luma (BT.601 weights, as ffmpeg's gray conversion). */
+async function paintedGray(): Promise<Buffer> {
+  const gray = await page.evaluate(
+    ([w, h]) => {
+      const v = document.querySelector("[data-testid=review-video] video") as HTMLVideoElement;
+      const c = document.createElement("canvas");
+      c.width = w;
+      c.height = h;
+      const g = c.getContext("2d")!;
+      g.drawImage(v, 0, 0, w, h);
+      const px = g.getImageData(0, 0, w, h).data;
+      const out: number[] = [];
+      for (let i = 0; i < px.length; i += 4) out.push(Math.round(0.299 * px[i] + 0.587 * px[i + 1] + 0.114 * px[i + 2]));
+      return out;
+    },
+    [W, H] as const,
+  );
+  return Buffer.from(gray);
+}
+
 /** ffmpeg decoding to raw 8-bit gray, stdout as bytes. */
 function decodeGray(args: string[]): Promise<Buffer> {
   return new Promise((resolve, reject) => {
@@ -211,28 +231,31 @@ describe("a damaged recording in the review room", () => {
     await expect.poll(async () => (await videoState()).t).toBeGreaterThanOrEqual(155 / FPS);
     expect((await videoState()).t).toBeLessThan(156 / FPS);
     // what the browser paints there is the clean stream's frame 155 (checked through a canvas)
-    const gray = await page.evaluate(
-      ([w, h]) => {
-        const v = document.querySelector("[data-testid=review-video] video") as HTMLVideoElement;
-        const c = document.createElement("canvas");
-        c.width = w;
-        c.height = h;
-        const g = c.getContext("2d")!;
-        g.drawImage(v, 0, 0, w, h);
-        const px = g.getImageData(0, 0, w, h).data;
-        const out: number[] = [];
-        // BT.601 luma, as ffmpeg's gray conversion uses for this stream
-        for (let i = 0; i < px.length; i += 4) out.push(Math.round(0.299 * px[i] + 0.587 * px[i + 1] + 0.114 * px[i + 2]));
-        return out;
-      },
-      [W, H] as const,
-    );
-    const painted = Buffer.from(gray);
+    const painted = await paintedGray();
     const same = meanAbsDiff(painted, await cleanFrame(155));
     const other = Math.min(meanAbsDiff(painted, await cleanFrame(154)), meanAbsDiff(painted, await cleanFrame(156)), meanAbsDiff(painted, await cleanFrame(165)));
     if (process.env.CAIRN_PRINT_FIGURES) console.log(`painted slot 155: vs clean 155 ${same.toFixed(3)}, nearest other ${other.toFixed(3)}`);
     expect(other).toBeGreaterThan(same * 3); // measured: 0.89 to 0.97 against 6.5
     await video().scrollIntoViewIfNeeded();
+  });
+
+  it("inside a loss the readout says so and the picture is the last frame before it, held", { timeout: 60_000 }, async () => {
+    await page.goto(`/recordings/${rec.recording.id}?frame=45`);
+    await page.waitForFunction(() => ((document.querySelector("[data-testid=review-video] video") as HTMLVideoElement | null)?.readyState ?? 0) >= 2);
+    await expect.poll(frameText).toContain("frame 45 ");
+    await expect.poll(() => page.getByTestId("frame-link-state").innerText()).toContain("Video lost here: last frame held");
+    await expect.poll(async () => (await videoState()).t).toBeGreaterThanOrEqual(45 / FPS);
+    const painted = await paintedGray();
+    const held = meanAbsDiff(painted, await cleanFrame(39));
+    const other = Math.min(meanAbsDiff(painted, await cleanFrame(45)), meanAbsDiff(painted, await cleanFrame(38)), meanAbsDiff(painted, await cleanFrame(53)));
+    if (process.env.CAIRN_PRINT_FIGURES) console.log(`painted slot 45 (lost): vs clean 39 ${held.toFixed(3)}, nearest other ${other.toFixed(3)}`);
+    expect(other).toBeGreaterThan(held * 3);
+    // one step on, still inside the loss; the step after the loss leaves it
+    await page.getByRole("heading", { name: "FADE0001.264" }).click();
+    await page.keyboard.press(".");
+    await expect.poll(frameText).toContain("frame 46 ");
+    expect(await page.getByTestId("frame-link-state").innerText()).toContain("Video lost");
+    await page.screenshot({ path: path.join(SHOTS, "damaged-inside-loss.png") });
   });
 
   it("the report prints the same figures and times", { timeout: 120_000 }, async () => {
