@@ -7,7 +7,7 @@
 //   - notes that were never part of the repository, by the names they went under.
 // The patterns below spell those names with a character class, so this file does not match itself.
 import { execFileSync } from "node:child_process";
-import { existsSync, readFileSync } from "node:fs";
+import { existsSync, lstatSync, readFileSync } from "node:fs";
 import path from "node:path";
 import { describe, expect, it } from "vitest";
 
@@ -31,7 +31,8 @@ const SKIP = new Set(["package-lock.json"]);
 
 function gitFiles(): string[] {
   const out = execFileSync("git", ["ls-files", "-z", "--cached", "--others", "--exclude-standard"], { cwd: root, encoding: "utf8", maxBuffer: 64 * 1024 * 1024 });
-  return [...new Set(out.split("\0").filter(Boolean))].filter((f) => existsSync(path.join(root, f)));
+  // regular files only: a symbolic link (say a node_modules link in a second checkout) or a submodule is no text of ours
+  return [...new Set(out.split("\0").filter(Boolean))].filter((f) => existsSync(path.join(root, f)) && lstatSync(path.join(root, f)).isFile());
 }
 
 function textOf(file: string): string | undefined {
