@@ -1,5 +1,6 @@
 // One error class, one code-to-status table, one JSON body shape for every API answer that fails.
 import { ZodError } from "zod";
+import { isServiceUnavailable, RETRY_AFTER_SECONDS, UNAVAILABLE_MESSAGE } from "./service-unavailable";
 import { describeErrorForLog } from "./describe-error-for-log";
 
 export const ERROR_STATUS = {
@@ -16,6 +17,7 @@ export const ERROR_STATUS = {
   locked: 423,
   rate_limited: 429,
   internal: 500,
+  unavailable: 503,
 } as const;
 export type ErrorCode = keyof typeof ERROR_STATUS;
 
@@ -53,12 +55,17 @@ export function errorBody(err: unknown): { status: number; body: ErrorBody } {
   if (err instanceof ZodError) {
     return { status: 422, body: { error: { code: "unprocessable", message: "Some fields are not valid", fields: fieldErrors(err) } } };
   }
+  if (isServiceUnavailable(err)) return { status: 503, body: { error: { code: "unavailable", message: UNAVAILABLE_MESSAGE } } };
   return { status: 500, body: { error: { code: "internal", message: "Something went wrong on our side. Nothing was saved." } } };
 }
 
 export function errorResponse(err: unknown): Response {
   const { status, body } = errorBody(err);
   // never the error object itself: a failed query's bound parameters ride on it
+  if (status === 503) {
+    console.warn(`[cairn] service unavailable: ${describeErrorForLog(err)}`);
+    return Response.json(body, { status, headers: { "Cache-Control": "no-store", "Retry-After": String(RETRY_AFTER_SECONDS) } });
+  }
   if (status >= 500) console.error(`[cairn] unexpected error: ${describeErrorForLog(err)}`);
   return Response.json(body, { status, headers: { "Cache-Control": "no-store" } });
 }

@@ -5,6 +5,7 @@ import { type ErrorCode, ERROR_STATUS } from "@/lib/api/errors";
 import { formatBytes } from "./format-bytes";
 import { UploadRefusal } from "./upload-refusal";
 import { describeErrorForLog } from "@/lib/api/describe-error-for-log";
+import { isServiceUnavailable } from "@/lib/api/service-unavailable";
 
 type TusError = { status_code: number; body: string };
 
@@ -42,6 +43,10 @@ export function explainTusError(err: Error | TusError, maxBytes: number): TusErr
   }
   if (typeof e.status_code === "number" && e.status_code < 500 && typeof e.body === "string") {
     return { status_code: e.status_code, body: JSON.stringify({ error: { code: "bad_request", message: e.body.trim() } }) };
+  }
+  if (isServiceUnavailable(err)) {
+    console.warn(`[uploads] service unavailable: ${describeErrorForLog(err)}`);
+    return json("unavailable", "Cairn cannot reach its database right now. The bytes already received are kept: the upload continues from there once it is back.");
   }
   if (e.body === ERRORS.FILE_WRITE_ERROR.body || e.body === ERRORS.ERR_LOCK_TIMEOUT.body) console.warn("[uploads]", e.body.trim());
   else console.error(`[uploads] unexpected error: ${describeErrorForLog(err)}`);

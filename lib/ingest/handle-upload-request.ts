@@ -15,6 +15,10 @@ import { uploadService } from "./upload-server";
 import { ApiError } from "@/lib/api/errors";
 import { assertSameOrigin, isStateChanging } from "@/lib/api/refuse-cross-site";
 import { describeErrorForLog } from "@/lib/api/describe-error-for-log";
+import { isServiceUnavailable, RETRY_AFTER_SECONDS } from "@/lib/api/service-unavailable";
+
+export const UPLOAD_UNAVAILABLE_MESSAGE =
+  "Cairn cannot reach its database right now. The bytes already received are kept: the upload continues from there once it is back.";
 
 function sameOriginOrRefuse(req: Request): void {
   try {
@@ -31,6 +35,14 @@ function answer(status: number, body: unknown, tus: boolean): Response {
   const headers: Record<string, string> = { "Content-Type": "application/json", "Cache-Control": "no-store" };
   if (tus) headers["Tus-Resumable"] = TUS_RESUMABLE;
   return new Response(JSON.stringify(body), { status, headers });
+}
+
+/** 503 while the database is away: tus clients retry, and the upload continues where it stopped. */
+export function unavailable(tus: boolean, err: unknown): Response {
+  console.warn(`[uploads] service unavailable: ${describeErrorForLog(err)}`);
+  const res = answer(503, { error: { code: "unavailable", message: UPLOAD_UNAVAILABLE_MESSAGE } }, tus);
+  res.headers.set("Retry-After", String(RETRY_AFTER_SECONDS));
+  return res;
 }
 
 function refusalResponse(err: UploadRefusal, tus: boolean): Response {
@@ -85,6 +97,17 @@ function withJson(h: Headers): Headers {
   return out;
 }
 
+/**
+ * A request refused before its body was read (a PATCH answered 401, 415 or 503 by our checks) still
+ * has its bytes on the wire. Read and drop them after answering, as Node's own server does for a body
+ * nobody consumed: otherwise the next request a client sends on the same kept-alive connection (tus
+ * clients retry with HEAD at once) waits behind bytes nobody reads, forever.
+ */
+function discardUnreadBody(req: Request): void {
+  if (!req.body || req.bodyUsed || req.body.locked) return;
+  void req.body.pipeTo(new WritableStream()).catch(() => {});
+}
+
 export async function handleUploadRequest(req: Request): Promise<Response> {
   const method = req.method.toUpperCase();
   const tus = method !== "GET";
@@ -103,7 +126,9 @@ export async function handleUploadRequest(req: Request): Promise<Response> {
     }
     return await asJsonError(await uploadService().server.handleWeb(req));
   } catch (err) {
+    discardUnreadBody(req);
     if (err instanceof UploadRefusal) return refusalResponse(err, tus);
+    if (isServiceUnavailable(err)) return unavailable(tus, err);
     console.error(`[uploads] unexpected error: ${describeErrorForLog(err)}`);
     return answer(500, { error: { code: "internal", message: "Something went wrong on our side; retrying continues the upload from the bytes already received" } }, tus);
   }

@@ -95,8 +95,8 @@ describe("tampering", () => {
     const r = await verifyOrganisationChain(scratchOrg, { pageSize: 5 });
     expect(r.ok).toBe(false);
     if (!r.ok) {
-      expect(r.brokenAt.seq).toBe(17);
-      expect(r.brokenAt.id).toBe(target.id);
+      expect(r.brokenAt?.seq).toBe(17);
+      expect(r.brokenAt?.id).toBe(target.id);
       expect(r.reason).toBe("hash-mismatch");
       expect(r.count).toBe(16);
     }
@@ -113,7 +113,7 @@ describe("tampering", () => {
     const target = await eventAt(24);
     await asOwner((sql) => sql.unsafe(`update custody_events set ${assignment} where id = $1`, [target.id]));
     const r = await verifyOrganisationChain(scratchOrg);
-    expect(r.ok ? null : r.brokenAt.seq).toBe(24);
+    expect(r.ok ? null : r.brokenAt?.seq).toBe(24);
     await asOwner((sql) =>
       sql`update custody_events set original_size = ${target.originalSize}, occurred_at = ${target.occurredAt}, client_address = ${target.clientAddress}, details = ${target.details ? sql.json(target.details as postgres.JSONValue) : null} where id = ${target.id}`,
     );
@@ -127,7 +127,7 @@ describe("tampering", () => {
     await asOwner((sql) => sql`update custody_events set purpose = 'rewritten and re-sealed', hash = ${forgedHash} where id = ${target.id}`);
     const r = await verifyOrganisationChain(scratchOrg);
     // the event itself is consistent again; the link from the next event to it is not
-    expect(r.ok ? null : [r.brokenAt.seq, r.reason]).toEqual([31, "prev-mismatch"]);
+    expect(r.ok ? null : [r.brokenAt?.seq, r.reason]).toEqual([31, "prev-mismatch"]);
     await asOwner((sql) => sql`update custody_events set purpose = ${target.purpose}, hash = ${target.hash} where id = ${target.id}`);
     expect((await verifyOrganisationChain(scratchOrg)).ok).toBe(true);
   });
@@ -136,7 +136,7 @@ describe("tampering", () => {
     const target = await eventAt(33);
     await asOwner((sql) => sql`update custody_events set hash = ${"ab".repeat(32)} where id = ${target.id}`);
     const r = await verifyOrganisationChain(scratchOrg);
-    expect(r.ok ? null : [r.brokenAt.seq, r.reason]).toEqual([33, "hash-mismatch"]);
+    expect(r.ok ? null : [r.brokenAt?.seq, r.reason]).toEqual([33, "hash-mismatch"]);
     await asOwner((sql) => sql`update custody_events set hash = ${target.hash} where id = ${target.id}`);
     expect((await verifyOrganisationChain(scratchOrg)).ok).toBe(true);
   });
@@ -146,7 +146,7 @@ describe("tampering", () => {
     const next = await eventAt(10);
     await asOwner((sql) => sql`delete from custody_events where id = ${removed.id}`);
     const r = await verifyOrganisationChain(scratchOrg);
-    expect(r.ok ? null : [r.brokenAt.seq, r.brokenAt.id, r.reason]).toEqual([10, next.id, "prev-mismatch"]);
+    expect(r.ok ? null : [r.brokenAt?.seq, r.brokenAt?.id, r.reason]).toEqual([10, next.id, "prev-mismatch"]);
     // put it back exactly as it was: the chain verifies again
     await asOwner(async (sql) => {
       const { prevHash, hash, ...rest } = removed;

@@ -13,7 +13,16 @@ export type ChaosProxy = {
   close: () => Promise<void>;
 };
 
-export async function startChaosProxy(opts: { listenPort: number; targetPort: number; cutRate: number; minBytes: number; maxBytes: number; random?: () => number }): Promise<ChaosProxy> {
+export async function startChaosProxy(opts: {
+  listenPort: number;
+  targetPort: number;
+  cutRate: number;
+  minBytes: number;
+  maxBytes: number;
+  /** a pause after each piece the client sends, so uploads last long enough to be caught mid-way */
+  delayPerChunkMs?: number;
+  random?: () => number;
+}): Promise<ChaosProxy> {
   const random = opts.random ?? Math.random;
   const stats = { connections: 0, cut: 0, refused: 0 };
   let calm = false;
@@ -38,7 +47,11 @@ export async function startChaosProxy(opts: { listenPort: number; targetPort: nu
         return;
       }
       forwarded += chunk.length;
-      if (!upstream.write(chunk)) {
+      const flowing = upstream.write(chunk);
+      if (opts.delayPerChunkMs) {
+        client.pause();
+        setTimeout(() => (flowing ? client.resume() : upstream.once("drain", () => client.resume())), opts.delayPerChunkMs);
+      } else if (!flowing) {
         client.pause();
         upstream.once("drain", () => client.resume());
       }
@@ -56,8 +69,16 @@ export async function startChaosProxy(opts: { listenPort: number; targetPort: nu
       client.destroy();
     });
     client.on("error", () => upstream.destroy());
-    client.on("close", () => sockets.delete(client));
-    upstream.on("close", () => sockets.delete(upstream));
+    // one side gone for good: so is the other (as a reverse proxy does), or a paused client socket
+    // would wait forever for an answer from an upstream that has closed
+    client.on("close", () => {
+      sockets.delete(client);
+      upstream.destroy();
+    });
+    upstream.on("close", () => {
+      sockets.delete(upstream);
+      client.destroy();
+    });
   });
   await new Promise<void>((resolve) => server.listen(opts.listenPort, "127.0.0.1", resolve));
   return {
