@@ -176,6 +176,8 @@ describe("a damaged recording in the review room", () => {
     expect(st.d).toBeLessThan((SLOTS + 1) / FPS);
     expect(st.t).toBeGreaterThanOrEqual(st.d - 1 / FPS);
     await expect.poll(frameText).toContain(`frame ${SLOTS - 1} `);
+    // the re-encoded rendition plays through on its own: the decode-error safety net never acted
+    expect(await page.getByTestId("decode-recovery-note").count()).toBe(0);
   });
 
   it("seeks past the damage, steps frames, and marks a finding whose still is that recorder frame", { timeout: 120_000 }, async () => {
