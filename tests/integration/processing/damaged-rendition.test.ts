@@ -156,18 +156,22 @@ describe("a fading link: losses mid-group and before an IDR, scrambled IDR and P
 });
 
 describe("a run lost over a whole group of pictures", () => {
-  it("counts the group (IDR included) and says 'at least': x264's idr_pic_id alternates, so three groups would read the same", async () => {
-    // 175..209: the end of the group at 150 and the whole group at 180; the next picture is the IDR at 210
-    const { result, playable } = await derive("whole-group", { remove: range(175, 210) });
+  it("counts a 45-frame run over a group (IDR included) as at least 45: x264's idr_pic_id alternates, so three groups would read the same; the frame after it sits at its slot", async () => {
+    // 165..209 (45 frames): the end of the group at 150 and the whole group at 180; the next picture is
+    // the IDR at 210
+    const { result, playable } = await derive("whole-group", { remove: range(165, 210) });
     const f = result.figures!;
-    expect(lostRuns(result)).toEqual([[175, 210]]);
-    expect(f.framesLost).toBe(35);
+    expect(lostRuns(result)).toEqual([[165, 210]]);
+    expect(f.framesLost).toBe(45);
     expect(f.framesLostIsLowerBound).toBe(true);
-    expect(describeLostFrames(f)).toBe("at least 35");
+    expect(describeLostFrames(f)).toBe("at least 45");
     expect(f.frameSlots).toBe(360);
-    expect((await framePts(playable)).length).toBe(360);
-    expect(await shownSourceFrame(playable, 210, [174, 175, 209, 210, 211])).toBe(210);
-    expect(await shownSourceFrame(playable, 190, [174, 175, 189, 190])).toBe(174);
+    const pts = await framePts(playable);
+    expect(pts.length).toBe(360);
+    // the frame after the 45-frame gap: slot 210 at 210 / 30 = 7 s (ffprobe pts_time)
+    expect(pts[210]).toBeCloseTo(7, 4);
+    expect(await shownSourceFrame(playable, 210, [164, 165, 209, 210, 211])).toBe(210);
+    expect(await shownSourceFrame(playable, 190, [164, 165, 189, 190])).toBe(164);
   }, 60_000);
 });
 
