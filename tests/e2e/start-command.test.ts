@@ -25,7 +25,7 @@ const startEnv = {
   CAIRN_SMTP_PORT: String(ports.smtp),
   PORT: String(ports.web),
   NEXT_DIST_DIR,
-} as NodeJS.ProcessEnv;
+} as unknown as NodeJS.ProcessEnv; // no NODE_ENV: npm start sets what it needs
 
 let child: ChildProcess | undefined;
 let output = "";
