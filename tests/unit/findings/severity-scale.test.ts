@@ -10,7 +10,7 @@ describe("severity scale", () => {
   // FHWA National Bridge Inventory condition ratings (Recording and Coding Guide, items 58-62), as
   // listed in docs/outside-checks.md: 9 Excellent ... 5 Fair ... 3 Serious, 2 Critical, 1 Imminent failure, 0 Failed;
   // overall Good 7-9, Fair 5-6, Poor 0-4.
-  const NBI_WORDS_FROM_CHECKS: Record<number, string> = { 5: "Fair", 3: "Serious", 2: "Critical" };
+  const NBI_WORDS_PUBLISHED: Record<number, string> = { 5: "Fair", 3: "Serious", 2: "Critical" };
   const overall = (n: number) => (n >= 7 ? "Good" : n >= 5 ? "Fair" : "Poor");
 
   it("maps every level to an NBI rating on the 0-9 scale, worse level lower rating", () => {
@@ -22,7 +22,7 @@ describe("severity scale", () => {
   it("uses the NBI's own words where they were read in the guide", () => {
     for (const s of SEVERITIES) {
       const { nbiRating, nbiWord } = SEVERITY_SCALE[s];
-      if (NBI_WORDS_FROM_CHECKS[nbiRating]) expect(nbiWord).toBe(NBI_WORDS_FROM_CHECKS[nbiRating]);
+      if (NBI_WORDS_PUBLISHED[nbiRating]) expect(nbiWord).toBe(NBI_WORDS_PUBLISHED[nbiRating]);
     }
   });
 
