@@ -19,6 +19,8 @@ import { makeCounterH264, makeProcessedRecording, type ProcessedRecording } from
 import { makeDamagedH264 } from "@/tests/support/media/make-damaged-h264";
 import { runTool } from "@/tests/support/media/make-h264";
 import { derivedKey, storePath } from "@/lib/storage/local-store";
+import * as shareLinks from "@/app/api/share-links/route";
+import { req } from "@/tests/support/session";
 
 const FPS = 30;
 const range = (from: number, to: number) => Array.from({ length: to - from }, (_, i) => from + i);
@@ -28,6 +30,7 @@ let browser: Browser;
 let ctx: BrowserContext;
 let page: Page;
 let rec: ProcessedRecording;
+let jobId: string;
 
 const videoState = () =>
   page.evaluate(() => {
@@ -41,6 +44,7 @@ beforeAll(async () => {
   const actors = await demoActors();
   const orgId = await demoOrganisationId();
   const job = await makeJob(orgId, { title: "Decode recovery e2e job", reviewerId: actors.reviewer!.userId });
+  jobId = job.id;
   const flight = await makeFlight(orgId, { jobId: job.id });
   const clean = await makeCounterH264({ seconds: 6, fps: FPS, width: 320, height: 180, gop: 30 });
   const damaged = await makeDamagedH264(clean, { remove: [], scramble: range(100, 105) }, "e2e-decode-recovery");
@@ -108,5 +112,28 @@ describe("decode-error safety net", () => {
     await expect.poll(frameText).toContain("frame 3 ");
     await expect.poll(async () => (await videoState()).t).toBeGreaterThanOrEqual(3 / FPS);
     expect((await videoState()).t).toBeLessThan(4 / FPS);
+  });
+
+  it("the shared page plays on to the end too, with the same note", { timeout: 90_000 }, async () => {
+    const actors = await demoActors();
+    const res = await shareLinks.POST(await req(actors.owner, "POST", "/api/share-links", { jobId, scope: "recording", recordingId: rec.recording.id, label: "Broken clip", expiresInDays: 7 }));
+    expect(res.status).toBe(201);
+    const { url } = (await res.json()) as { url: string };
+    const visitor = await newContext(browser);
+    try {
+      const p = await visitor.newPage();
+      await p.goto(url);
+      await p.waitForFunction(() => ((document.querySelector("[data-testid=share-video] video") as HTMLVideoElement | null)?.readyState ?? 0) >= 1);
+      await p.locator(".vjs-big-play-button").click();
+      await p.getByTestId("decode-recovery-note").waitFor({ timeout: 30_000 });
+      await expect
+        .poll(() => p.evaluate(() => (document.querySelector("[data-testid=share-video] video") as HTMLVideoElement).ended), { timeout: 60_000, interval: 250 })
+        .toBe(true);
+      // the position line ends on the last frame's label, beside the stored duration
+      expect(await p.getByTestId("share-current-time").innerText()).toBe("00:00:05.967");
+      await p.screenshot({ path: path.join(SHOTS, "decode-recovery-share.png") });
+    } finally {
+      await visitor.close();
+    }
   });
 });
