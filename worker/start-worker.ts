@@ -106,33 +106,36 @@ export async function startWorker(options: StartOptions = {}): Promise<RunningWo
     if (requeued.reports.length) log(`reconciler: queued ${requeued.reports.length} report build(s) again that Redis had lost`);
     return { checked, requeued: [...requeued.recordings, ...requeued.stills, ...requeued.reports] };
   };
-  let reconcileTimer: NodeJS.Timeout | undefined;
-  if (names.includes("process-recording") || names.includes("extract-still") || names.includes("build-report")) {
-    await reconcile().catch((err) => console.error(`[worker] reconciler: ${(err as Error).message}`));
-    reconcileTimer = setInterval(() => {
-      reconcile().catch((err) => console.error(`[worker] reconciler: ${(err as Error).message}`));
-    }, timings.reconcileEveryMs);
-    reconcileTimer.unref();
-  }
-  if (names.includes("purge-uploads")) {
-    // A repeatable job: one schedule in Redis however many workers start (same key).
-    const s = JOB_SETTINGS["purge-uploads"];
-    await queue("purge-uploads").upsertJobScheduler(
-      "purge-uploads",
-      { every: PURGE_EVERY_MS },
-      { name: "purge-uploads", data: {}, opts: { attempts: s.attempts, removeOnComplete: { count: 24 }, removeOnFail: { count: 100 } } },
-    );
-  }
+  // Repeatable jobs: one schedule in Redis however many workers start (same key). Set at start and
+  // again on every reconciler tick: a Redis that lost its data has lost the schedules too.
+  const ensureSchedules = async () => {
+    if (names.includes("purge-uploads")) {
+      const s = JOB_SETTINGS["purge-uploads"];
+      await queue("purge-uploads").upsertJobScheduler(
+        "purge-uploads",
+        { every: PURGE_EVERY_MS },
+        { name: "purge-uploads", data: {}, opts: { attempts: s.attempts, removeOnComplete: { count: 24 }, removeOnFail: { count: 100 } } },
+      );
+    }
+    if (names.includes("custody-checkpoints")) {
+      // signed, time-stamped checkpoints of every organisation's custody chain (lib/custody/make-checkpoint.ts)
+      const s = JOB_SETTINGS["custody-checkpoints"];
+      await queue("custody-checkpoints").upsertJobScheduler(
+        "custody-checkpoints",
+        { every: checkpointSettings().everyMs },
+        { name: "custody-checkpoints", data: {}, opts: { attempts: s.attempts, backoff: { type: "exponential", delay: s.backoffMs }, removeOnComplete: { count: 24 }, removeOnFail: { count: 100 } } },
+      );
+    }
+  };
+  await ensureSchedules();
 
-  if (names.includes("custody-checkpoints")) {
-    // signed, time-stamped checkpoints of every organisation's custody chain (lib/custody/make-checkpoint.ts)
-    const s = JOB_SETTINGS["custody-checkpoints"];
-    await queue("custody-checkpoints").upsertJobScheduler(
-      "custody-checkpoints",
-      { every: checkpointSettings().everyMs },
-      { name: "custody-checkpoints", data: {}, opts: { attempts: s.attempts, backoff: { type: "exponential", delay: s.backoffMs }, removeOnComplete: { count: 24 }, removeOnFail: { count: 100 } } },
-    );
-  }
+  const reconciles = names.includes("process-recording") || names.includes("extract-still") || names.includes("build-report");
+  if (reconciles) await reconcile().catch((err) => console.error(`[worker] reconciler: ${(err as Error).message}`));
+  const reconcileTimer = setInterval(() => {
+    if (reconciles) reconcile().catch((err) => console.error(`[worker] reconciler: ${(err as Error).message}`));
+    ensureSchedules().catch((err) => console.error(`[worker] schedules: ${(err as Error).message}`));
+  }, timings.reconcileEveryMs);
+  reconcileTimer.unref();
 
   let stopping: Promise<{ forced: boolean }> | null = null;
   const stop = () =>

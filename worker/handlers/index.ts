@@ -13,7 +13,10 @@ import { custodyCheckpointsJob } from "./custody-checkpoints";
 export type JobHandler<N extends JobName> = (job: Job<JobPayloads[N]>, signal: AbortSignal) => Promise<void>;
 export type JobHandlers = { [N in JobName]: JobHandler<N> };
 
-const progressOf = (job: Job) => (percent: number) => job.updateProgress(Math.min(100, Math.max(0, Math.round(percent))));
+// Progress lives in Redis and is only shown: a Redis that is away for a moment must not fail the work
+// (the handler would mark its row failed, and a Redis that lost its data has lost the retry too).
+const progressOf = (job: Job) => (percent: number) =>
+  job.updateProgress(Math.min(100, Math.max(0, Math.round(percent)))).catch(() => {});
 
 export const handlers: JobHandlers = {
   "process-recording": processRecordingJob,

@@ -28,6 +28,9 @@ export async function processRecordingJob(job: Job<Payload>, signal: AbortSignal
   const rec = await loadRecording(recordingId);
   // Gone or deleted since the job was queued: nothing to do, and nothing to retry.
   if (!rec || rec.deletedAt) return;
+  // Already processed: this is a second run of the same job (queued again by the reconciler after
+  // Redis lost the first one while it ran). Reprocessing sets the state back to "waiting" first.
+  if (rec.state === "ready") return;
 
   const workRoot = storePath("tmp");
   const workDir = path.join(workRoot, `process-${recordingId}-${process.pid}-${Date.now()}`);
@@ -59,9 +62,9 @@ export async function processRecordingJob(job: Job<Payload>, signal: AbortSignal
     await progress.flush();
     if (signal.aborted) throw signal.reason instanceof Error ? signal.reason : new Error("cancelled");
 
-    await commitResult(job, rec, result, workDir);
+    const committed = await commitResult(job, rec, result, workDir);
     // the crew hears once per outcome; a mail problem never fails the job (notify never throws)
-    await notifyProcessingFinished(recordingId);
+    if (committed) await notifyProcessingFinished(recordingId);
   } catch (err) {
     if (err instanceof RecordingRefused) {
       await markRecordingFailed(recordingId, err.message);
@@ -89,6 +92,7 @@ async function loadRecording(id: string) {
       duplicateOfId: recordings.duplicateOfId,
       fpsOverride: recordings.fpsOverride,
       deletedAt: recordings.deletedAt,
+      state: recordings.state,
       defaultControllerFps: organisations.defaultControllerFps,
     })
     .from(recordings)
@@ -118,10 +122,11 @@ async function removeStaleWorkFolders(workRoot: string, recordingId: string): Pr
  */
 async function commitResult(job: Job<Payload>, rec: LoadedRecording, result: DeriveResult, workDir: string): Promise<boolean> {
   return db().transaction(async (tx) => {
-    const [locked] = await tx.execute<{ id: string }>(
-      sql`select id from recordings where id = ${rec.id} and deleted_at is null for update`,
+    const [locked] = await tx.execute<{ id: string; state: string }>(
+      sql`select id, state from recordings where id = ${rec.id} and deleted_at is null for update`,
     );
-    if (!locked) return false;
+    // gone, or another run of the same job committed while this one worked: commit once only
+    if (!locked || locked.state === "ready") return false;
     // Should the commit below fail, the files in place are newer than the rows until the retry
     // commits; the retry writes the same files again (the outputs are deterministic).
     await replaceDerivedFolder(rec.organisationId, rec.id, workDir);
