@@ -11,7 +11,7 @@ const CONNECTION_CODES = new Set(["ECONNREFUSED", "ECONNRESET", "EPIPE", "ETIMED
 const MAX_DEPTH = 5;
 
 export const RETRY_AFTER_SECONDS = 5;
-export const UNAVAILABLE_MESSAGE = "Cairn cannot reach its database right now, so nothing was saved. Try again in a moment.";
+export const UNAVAILABLE_MESSAGE = "Cairn cannot reach its database or job queue right now, so nothing was saved. Try again in a moment.";
 
 export function isServiceUnavailable(err: unknown): boolean {
   let e = err as { code?: unknown; cause?: unknown; errors?: unknown; message?: unknown } | undefined;

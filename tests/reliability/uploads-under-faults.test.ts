@@ -48,7 +48,7 @@ describe("uploads through cut connections and a killed server", () => {
     const sources: string[] = [];
     for (let i = 0; i < UPLOADS; i++) sources.push(await makePaddedRawH264(3 * 1024 * 1024 + i * 97 * 1024, `reliability-${i}`));
     const digests = await Promise.all(sources.map((f) => sha256sum(f)));
-    const targets = [];
+    const targets: { id: string; jobId: string }[] = [];
     for (let i = 0; i < UPLOADS; i++) targets.push(await makeFlight(orgId));
     const sizes = await Promise.all(sources.map(async (f) => (await import("node:fs/promises")).stat(f).then((s) => s.size)));
     const total = sizes.reduce((a, b) => a + b, 0);
