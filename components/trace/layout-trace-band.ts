@@ -39,7 +39,7 @@ export const STATE_MEANINGS: Record<LinkState, string> = {
 };
 
 /** Damaged and lost intervals are never drawn narrower than this, whatever the band's width. */
-export const MIN_MARK_WIDTH_PX = 6;
+export const MIN_MARK_WIDTH_PX = 8;
 
 const plural = (n: number, one: string) => `${n} ${one}${n === 1 ? "" : "s"}`;
 

@@ -8,7 +8,7 @@ import { LinkEventShape } from "@/components/range/link-event-mark";
 import { formatFrameClockTime } from "@/lib/timecode/format-frame-clock-time";
 import { formatClockTime } from "@/lib/timecode/format-clock-time";
 import type { FrameRate } from "@/lib/timecode/frame-rate";
-import { bandEvents, layoutTraceBand, MIN_MARK_WIDTH_PX, STATE_MEANINGS, STATE_WORDS, type BandInterval, type LinkState } from "./layout-trace-band";
+import { bandEvents, layoutTraceBand, MIN_MARK_WIDTH_PX, STATE_MEANINGS, STATE_WORDS, type BandEvent, type BandInterval, type LinkState } from "./layout-trace-band";
 
 export function TraceBand({
   intervals,
@@ -37,17 +37,18 @@ export function TraceBand({
   const pct = (sec: number) => (totalSec > 0 ? Math.min(100, Math.max(0, (sec / totalSec) * 100)) : 0);
   return (
     <div className="flex flex-col gap-1" data-testid="trace-band">
-      {/* event marks: shape and number above the band, where each event happens */}
+      {/* event marks: shape and number above the band, where each event happens; events closer than
+          MARK_GROUP_PCT share one mark ("1–3") so their numbers stay readable */}
       <div className="relative h-4 w-full" aria-hidden>
-        {events.map((e) => (
+        {groupMarks(events, pct).map((g) => (
           <span
-            key={e.n}
-            className="absolute top-0 flex -translate-x-1/2 items-center gap-px text-[10px] leading-none text-ink"
-            style={{ left: `${pct(e.atSec)}%` }}
-            title={`${e.n}. ${e.word} at ${timeOf(e)}`}
+            key={g.first.n}
+            className="absolute top-0 flex -translate-x-1/2 items-center gap-px whitespace-nowrap text-[10px] leading-none text-ink"
+            style={{ left: `${g.atPct}%` }}
+            title={g.events.map((e) => `${e.n}. ${e.word} at ${timeOf(e)}`).join("\n")}
           >
-            <LinkEventShape event={e.event} size={9} />
-            {e.n}
+            <LinkEventShape event={g.first.event} size={9} />
+            {g.events.length === 1 ? g.first.n : `${g.first.n}–${g.events[g.events.length - 1].n}`}
           </span>
         ))}
       </div>
@@ -60,8 +61,13 @@ export function TraceBand({
             title={s.label}
             data-state={s.state}
             onClick={() => onSeek?.(s.atSec)}
-            className={`band-${s.state} absolute top-0.5 bottom-0.5 ${s.state === "lost" ? "z-10 bg-bad-soft" : s.state === "damaged" ? "z-[5]" : ""} ${onSeek ? "cursor-pointer" : "cursor-default"}`}
-            style={{ left: `${s.leftPct}%`, width: s.state === "intact" ? `${s.widthPct}%` : `max(${MIN_MARK_WIDTH_PX}px, ${s.widthPct}%)` }}
+            className={`band-${s.state} absolute ${s.state === "lost" ? "-top-1 -bottom-1 z-10 bg-bad-soft" : s.state === "damaged" ? "top-0.5 bottom-0.5 z-[5]" : "top-0.5 bottom-0.5"} ${onSeek ? "cursor-pointer" : "cursor-default"}`}
+            style={{
+              left: `${s.leftPct}%`,
+              width: s.state === "intact" ? `${s.widthPct}%` : `max(${MIN_MARK_WIDTH_PX}px, ${s.widthPct}%)`,
+              // a loss stands out of the band: taller than it, its dashed outline in the warning colour
+              ...(s.state === "lost" ? { outlineColor: "var(--color-bad)" } : {}),
+            }}
           />
         ))}
         {currentSec !== undefined && totalSec > 0 && <span className="absolute -top-0.5 -bottom-0.5 z-20 w-0.5 bg-lake" style={{ left: `${pct(currentSec)}%` }} />}
@@ -108,13 +114,27 @@ export function TraceBand({
   );
 }
 
+/** Events within this share of the band are drawn as one mark above it. */
+const MARK_GROUP_PCT = 2.5;
+
+function groupMarks<E extends { n: number; atSec: number; event: BandEvent["event"] }>(events: E[], pct: (sec: number) => number): Array<{ first: E; events: E[]; atPct: number }> {
+  const groups: Array<{ first: E; events: E[]; atPct: number }> = [];
+  for (const e of events) {
+    const at = pct(e.atSec);
+    const last = groups[groups.length - 1];
+    if (last && at - last.atPct < MARK_GROUP_PCT) last.events.push(e);
+    else groups.push({ first: e, events: [e], atPct: at });
+  }
+  return groups;
+}
+
 export function BandLegend() {
   const states: LinkState[] = ["intact", "damaged", "lost"];
   return (
     <ul className="flex flex-wrap gap-x-4 gap-y-1 text-xs text-ink-2" aria-label="Link states">
       {states.map((s) => (
         <li key={s} className="flex items-center gap-1" title={STATE_MEANINGS[s]}>
-          <span className={`band-${s} inline-block h-3 w-5 rounded-sm ${s === "lost" ? "bg-bad-soft" : ""}`} aria-hidden />
+          <span className={`band-${s} inline-block h-3 w-5 rounded-sm ${s === "lost" ? "bg-bad-soft" : ""}`} style={s === "lost" ? { outlineColor: "var(--color-bad)" } : undefined} aria-hidden />
           {STATE_WORDS[s]}
         </li>
       ))}

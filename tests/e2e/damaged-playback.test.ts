@@ -22,6 +22,7 @@ import { makeDamagedH264 } from "@/tests/support/media/make-damaged-h264";
 import { describeMoment } from "@/lib/findings/describe-moment";
 import { describeLostFrames, readRecordingFigures } from "@/lib/media/recording-figures";
 import { storePath } from "@/lib/storage/local-store";
+import { MIN_MARK_WIDTH_PX } from "@/components/trace/layout-trace-band";
 import { readFile } from "node:fs/promises";
 import { readPdfText } from "@/tests/support/read-pdf-text";
 
@@ -154,9 +155,11 @@ describe("a damaged recording in the review room", () => {
     expect(await flight.getByTestId("first-degradation").innerText()).toBe("at 00:00:01.334 (flight time)");
     expect(await flight.innerText()).toContain("Video lost between files for about 12.0 s (estimated from the recorder's file times)");
     expect(await flight.innerText()).toMatch(/about 12\.000 s \(between files, estimated\)/);
-    // the 13-frame loss is drawn at least 6 px wide
+    // the 13-frame loss is drawn at least MIN_MARK_WIDTH_PX wide, and taller than the band
     const lost = page.locator("[data-testid=trace-band] button[data-state=lost]").first();
-    expect((await lost.boundingBox())!.width).toBeGreaterThanOrEqual(6);
+    const lostBox = (await lost.boundingBox())!;
+    expect(lostBox.width).toBeGreaterThanOrEqual(MIN_MARK_WIDTH_PX);
+    expect(lostBox.height).toBeGreaterThan((await page.locator("[data-testid=trace-band] button[data-state=intact]").first().boundingBox())!.height);
     await page.getByTestId("trace-band").scrollIntoViewIfNeeded();
     await page.screenshot({ path: path.join(SHOTS, "damaged-band.png"), fullPage: false });
     await flight.scrollIntoViewIfNeeded();
