@@ -40,8 +40,8 @@ export type Anchor = {
 
 export type CheckpointProblem = { reason: CheckpointBreakReason; checkpoint: CheckpointRef };
 
-/** The first problem among the checkpoints themselves, or null. `publicKey` is this installation's. */
-export function checkCheckpoints(checkpoints: readonly CustodyCheckpoint[], publicKey: string): CheckpointProblem | null {
+/** The first problem among the checkpoints themselves, or null. `trustedKeys`: this installation's public key and earlier ones. */
+export function checkCheckpoints(checkpoints: readonly CustodyCheckpoint[], trustedKeys: readonly string[]): CheckpointProblem | null {
   let previous: CustodyCheckpoint | undefined;
   for (const c of checkpoints) {
     const fail = (reason: CheckpointBreakReason): CheckpointProblem => ({ reason, checkpoint: checkpointRef(c) });
@@ -49,7 +49,7 @@ export function checkCheckpoints(checkpoints: readonly CustodyCheckpoint[], publ
       return fail("checkpoint-missing");
     }
     const statement = checkpointStatement(c);
-    if (c.publicKey !== publicKey || !verifyStatement(c.publicKey, statement, c.signature)) return fail("checkpoint-signature");
+    if (!trustedKeys.includes(c.publicKey) || !verifyStatement(c.publicKey, statement, c.signature)) return fail("checkpoint-signature");
     if (c.tsaResponse) {
       try {
         const info = readTimestampResponse(Buffer.from(c.tsaResponse, "base64"));
@@ -80,7 +80,7 @@ export function anchorOf(checkpoints: readonly CustodyCheckpoint[], headSeq: num
 
 const WORDS: Record<CheckpointBreakReason, string> = {
   "checkpoint-missing": "a signed checkpoint is missing or out of order (checkpoints were removed or rewritten)",
-  "checkpoint-signature": "its signature does not verify with this installation's custody key (the checkpoint was forged or altered)",
+  "checkpoint-signature": "its signature does not verify with this installation's custody key or an earlier one it trusts (the checkpoint was forged or altered)",
   "checkpoint-timestamp": "its time-stamp token is not for this checkpoint (the token was replaced or the checkpoint altered)",
   "checkpoint-mismatch": "the event stored at the checkpoint's head is not the one that was signed (events up to it were altered and the chain re-sealed)",
   truncated: "the log ends before the last event a signed checkpoint covers (events were removed from the end)",

@@ -10,6 +10,7 @@ import { custodyEvents } from "@/db/schema";
 import type { CustodyEvent } from "@/db/schema/types";
 import { ChainVerifier, type ChainBreakReason } from "./verify-chain";
 import { custodySigner } from "./checkpoint-key";
+import { checkpointSettings } from "./checkpoint-settings";
 import { listCheckpoints } from "./make-checkpoint";
 import { anchorOf, checkCheckpoints, checkpointRef, describeCheckpointBreak, type Anchor, type CheckpointBreakReason, type CheckpointRef } from "./verify-checkpoints";
 
@@ -102,7 +103,7 @@ export async function verifyOrganisationChain(
   });
   if (checkpoints.length) {
     // the checkpoints themselves first: a forged checkpoint must not vouch for anything
-    const problem = checkCheckpoints(checkpoints, custodySigner().publicKey);
+    const problem = checkCheckpoints(checkpoints, [custodySigner().publicKey, ...checkpointSettings().previousPublicKeys]);
     if (problem) return checkpointFailure(problem.reason, problem.checkpoint, null);
     if (mismatch) return checkpointFailure("checkpoint-mismatch", checkpointRef(mismatch.checkpoint), mismatch.event);
     const last = checkpoints[checkpoints.length - 1];

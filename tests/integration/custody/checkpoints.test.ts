@@ -200,6 +200,13 @@ describe("what the checkpoints catch that the hash chain alone does not", () => 
     // a forged checkpoint 2 re-signed by someone without the installation's key
     await asOwner((sql) => sql`update custody_checkpoints set public_key = ${other.publicKey}, signature = ${signStatement(other, checkpointStatement(second))} where id = ${second.id}`);
     expect(await verifyOrganisationChain(org)).toMatchObject({ ok: false, reason: "checkpoint-signature", checkpoint: { number: 2 } });
+    // after a key change, an earlier key listed in the environment (never the database) is trusted
+    process.env.CUSTODY_PREVIOUS_PUBLIC_KEYS = other.publicKey;
+    try {
+      expect((await verifyOrganisationChain(org)).ok).toBe(true);
+    } finally {
+      delete process.env.CUSTODY_PREVIOUS_PUBLIC_KEYS;
+    }
     await asOwner((sql) => sql`update custody_checkpoints set public_key = ${second.publicKey}, signature = ${second.signature} where id = ${second.id}`);
     // checkpoint 2's token put on checkpoint 1
     await asOwner((sql) => sql`update custody_checkpoints set tsa_response = ${second.tsaResponse}, stamped_at = ${second.stampedAt} where id = ${first.id}`);
