@@ -31,7 +31,7 @@ type EventRow = {
   outputSha256: string | null;
   hash: string;
 };
-type Anchor = { checkpoints: number; number: number; headSeq: number; signedAt: string; stampedAt: string | null; keyId: string; unanchored: number } | null;
+type Anchor = { checkpoints: number; number: number; headSeq: number; signedAt: string; stampedAt: string | null; keyId: string; unanchored: number; oldestUnanchoredAt: string | null; stale: boolean } | null;
 type CheckpointRef = { number: number; headSeq: number; signedAt: string; stampedAt: string | null };
 type Verification =
   | { ok: true; count: number; headHash: string; headSeq: number; verifiedAt: string; anchor: Anchor }
@@ -92,6 +92,11 @@ export function CustodyLogPanel({ recordingId, jobId }: { recordingId?: string; 
               ? `Complete up to checkpoint ${result.anchor.number} (event #${result.anchor.headSeq}), signed ${when(result.anchor.signedAt)}${result.anchor.stampedAt ? `, time-stamped ${when(result.anchor.stampedAt)}` : ", not time-stamped"}; ${result.anchor.unanchored === 0 ? "every event is anchored" : `${result.anchor.unanchored.toLocaleString("en-US")} event${result.anchor.unanchored === 1 ? " after it is" : "s after it are"} not yet anchored`}.`
               : "No checkpoint yet: the order of events is proven, that none was removed from the end is not yet."}
           </p>
+          {result.anchor?.stale && result.anchor.oldestUnanchoredAt && (
+            <p className="mt-1 font-medium text-bad" data-testid="chain-anchor-stale">
+              Checkpoints have not kept up: an event from {when(result.anchor.oldestUnanchoredAt)} is still waiting for one. Either the worker is not making checkpoints, or the newest checkpoint was removed.
+            </p>
+          )}
         </div>
       )}
       {result && !result.ok && result.checkpoint && (

@@ -36,6 +36,14 @@ export type Anchor = {
   keyId: string;
   /** events after the last checkpoint: their order is proven, that none was cut from the end is not yet */
   unanchored: number;
+  /** the oldest event not yet anchored, when there is one */
+  oldestUnanchoredAt: Date | null;
+  /**
+   * checkpoints have not kept up: an event has waited for one longer than two checkpoint periods. The
+   * worker is not making them, or the newest checkpoint was removed (which, with the events after the
+   * one before it, the chain alone cannot show).
+   */
+  stale: boolean;
 } | null;
 
 export type CheckpointProblem = { reason: CheckpointBreakReason; checkpoint: CheckpointRef };
@@ -63,9 +71,10 @@ export function checkCheckpoints(checkpoints: readonly CustodyCheckpoint[], trus
   return null;
 }
 
-export function anchorOf(checkpoints: readonly CustodyCheckpoint[], headSeq: number): Anchor {
+export function anchorOf(checkpoints: readonly CustodyCheckpoint[], headSeq: number, oldestUnanchoredAt: Date | null, everyMs: number, now = Date.now()): Anchor {
   const last = checkpoints[checkpoints.length - 1];
   if (!last) return null;
+  const unanchored = headSeq - last.headSeq;
   return {
     checkpoints: checkpoints.length,
     number: last.number,
@@ -74,7 +83,9 @@ export function anchorOf(checkpoints: readonly CustodyCheckpoint[], headSeq: num
     stampedAt: last.stampedAt,
     tsaUrl: last.tsaUrl,
     keyId: keyIdOf(last.publicKey),
-    unanchored: headSeq - last.headSeq,
+    unanchored,
+    oldestUnanchoredAt: unanchored > 0 ? oldestUnanchoredAt : null,
+    stale: unanchored > 0 && oldestUnanchoredAt !== null && now - oldestUnanchoredAt.getTime() > 2 * everyMs,
   };
 }
 

@@ -63,6 +63,8 @@ export async function verifyOrganisationChain(
   const checkpoints = await listCheckpoints(organisationId, database);
   const checkpointAt = new Map(checkpoints.map((c) => [c.headSeq, c]));
   let mismatch: { event: CustodyEvent; checkpoint: (typeof checkpoints)[number] } | null = null;
+  const lastSigned = checkpoints.length ? checkpoints[checkpoints.length - 1].headSeq : 0;
+  let oldestUnanchoredAt: Date | null = null;
   let expectedSeq = 1;
   let count = 0;
   let head: CustodyEvent | null = null;
@@ -86,6 +88,7 @@ export async function verifyOrganisationChain(
       expectedSeq++;
       count++;
       head = event;
+      if (event.seq === lastSigned + 1) oldestUnanchoredAt = event.occurredAt;
       const signed = checkpointAt.get(event.seq);
       if (signed && !mismatch && (signed.headHash !== event.hash || signed.headEventId !== event.id)) mismatch = { event, checkpoint: signed };
     }
@@ -109,5 +112,5 @@ export async function verifyOrganisationChain(
     const last = checkpoints[checkpoints.length - 1];
     if (headSeq < last.headSeq) return checkpointFailure("truncated", checkpointRef(last), head);
   }
-  return { ok: true, count, headHash: r.headHash, headSeq, verifiedAt: new Date(), anchor: anchorOf(checkpoints, headSeq) };
+  return { ok: true, count, headHash: r.headHash, headSeq, verifiedAt: new Date(), anchor: anchorOf(checkpoints, headSeq, oldestUnanchoredAt, checkpointSettings().everyMs) };
 }

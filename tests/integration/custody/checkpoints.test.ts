@@ -116,11 +116,20 @@ describe("making checkpoints", () => {
   it("events after the last checkpoint are reported as not yet anchored; the next checkpoint anchors them", async () => {
     await addEvents(5, "second");
     const r = await verifyOrganisationChain(org, { pageSize: 7 });
-    expect(r).toMatchObject({ ok: true, count: 35, anchor: { number: 1, headSeq: 30, unanchored: 5, checkpoints: 1 } });
+    expect(r).toMatchObject({ ok: true, count: 35, anchor: { number: 1, headSeq: 30, unanchored: 5, checkpoints: 1, stale: false } });
+    if (r.ok) expect(r.anchor?.oldestUnanchoredAt).toEqual((await events())[30].occurredAt);
+    // with checkpoints due every second, events waiting for two periods and more make the anchor stale
+    process.env.CUSTODY_CHECKPOINT_EVERY_MS = "1000";
+    try {
+      await new Promise((resolve) => setTimeout(resolve, 2100));
+      expect(await verifyOrganisationChain(org)).toMatchObject({ ok: true, anchor: { unanchored: 5, stale: true } });
+    } finally {
+      delete process.env.CUSTODY_CHECKPOINT_EVERY_MS;
+    }
     const due = await makeDueCheckpoints({ tsaUrl: tsa.url });
     expect(due.failed).toEqual([]);
     expect(due.made).toBeGreaterThanOrEqual(1);
-    expect(await verifyOrganisationChain(org)).toMatchObject({ ok: true, count: 35, anchor: { number: 2, headSeq: 35, unanchored: 0, checkpoints: 2 } });
+    expect(await verifyOrganisationChain(org)).toMatchObject({ ok: true, count: 35, anchor: { number: 2, headSeq: 35, unanchored: 0, checkpoints: 2, stale: false, oldestUnanchoredAt: null } });
   });
 
   it("the database role of the app cannot change or remove a checkpoint", async () => {
