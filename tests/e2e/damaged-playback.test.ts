@@ -275,4 +275,26 @@ describe("a damaged recording in the review room", () => {
     expect(text).toContain("first degradation at 00:00:01.334 (frame 40)");
     expect(text).toContain(describeMoment(markedFrame, { num: FPS, den: 1 }).clock);
   });
+
+  it("a lost whole group of pictures reads 'at least' in the readout, the band and the summary", { timeout: 120_000 }, async () => {
+    // pictures 60-89 cut out, the IDR at 60 with them: x264 alternates idr_pic_id 0/1, so the IDRs
+    // before and after the gap carry the same id and the stream only tells "an odd number of groups"
+    const orgId = await demoOrganisationId();
+    const flight = await makeFlight(orgId, { jobId });
+    const groupLost = await makeDamagedH264(cleanPath, { remove: range(60, 90), scramble: [] }, "e2e-damaged-group-lost");
+    const r = await makeProcessedRecording(orgId, flight, { source: groupLost, name: "GROUP0001.264" });
+    const figures = readRecordingFigures(r.recording)!;
+    expect(figures.framesLostIsLowerBound).toBe(true);
+    expect(figures.framesLost).toBeGreaterThanOrEqual(30);
+    await page.goto(`/recordings/${r.recording.id}`);
+    await page.waitForFunction(() => ((document.querySelector("[data-testid=review-video] video") as HTMLVideoElement | null)?.readyState ?? 0) >= 2);
+    await expect.poll(frameText).toContain(`of ${figures.frameSlots}, at least ${figures.framesLost} lost`);
+    const summary = page.getByRole("region", { name: "Signal trace" });
+    expect(await summary.getByTestId("lost-frames").innerText()).toBe(`at least ${figures.framesLost}`);
+    const labels = await page.locator("[data-testid=trace-event][data-event=total_loss] button").evaluateAll((els) => els.map((e) => e.getAttribute("aria-label") ?? ""));
+    expect(labels.length).toBeGreaterThan(0);
+    for (const l of labels) expect(l).toMatch(/Video lost at .*, at least \d+ frames?, /);
+    await page.getByTestId("trace-band").scrollIntoViewIfNeeded();
+    await page.screenshot({ path: path.join(SHOTS, "damaged-at-least.png") });
+  });
 });

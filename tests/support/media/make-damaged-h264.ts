@@ -38,7 +38,7 @@ export function pictureRanges(data: Buffer): Array<{ start: number; end: number;
 }
 
 export type Damage = {
-  /** Pictures (0-based, decoding order of the clean stream) cut out whole: they never reached the recorder. */
+  /** Pictures (0-based, decoding order of the clean stream; not 0) cut out whole: they never reached the recorder. */
   remove: number[];
   /** Pictures whose slice data is overwritten in the middle (the header stays readable). */
   scramble: number[];
@@ -50,7 +50,9 @@ export async function makeDamagedH264(cleanPath: string, damage: Damage, name: s
   const pictures = pictureRanges(data);
   for (const n of [...damage.remove, ...damage.scramble]) {
     if (n <= 0 || n >= pictures.length) throw new Error(`picture ${n} is not in the stream (${pictures.length} pictures)`);
-    if (pictures[n].idr) throw new Error(`picture ${n} is an IDR picture; damage P pictures only, so the stream keeps its parameter sets`);
+    // picture 0 (refused above) carries the stream's first parameter sets; a later IDR may go, as a
+    // whole lost group of pictures does
+    if (pictures[n].idr && damage.scramble.includes(n)) throw new Error(`picture ${n} is an IDR picture; scramble P pictures only`);
   }
   const removed = new Set(damage.remove);
   const scrambled = new Set(damage.scramble);
