@@ -1,6 +1,7 @@
 // Tells the job's crew that a recording finished processing (ready to review) or failed, with a
 // link to it. Safe to call twice for the same outcome (the worker may retry): one mail per outcome.
 // Never throws: a mail problem must not fail or retry the processing job that calls this.
+import { formatClockTime } from "@/lib/timecode/format-clock-time";
 import { and, eq } from "drizzle-orm";
 import { db } from "@/db/client";
 import { jobs, organisations, recordings } from "@/db/schema";
@@ -51,7 +52,7 @@ export async function notifyProcessingFinished(recordingId: string): Promise<Not
     const paragraphs = ready
       ? [
           `${rec.originalName} in "${rec.jobTitle}" has been processed and is ready to review.`,
-          ...(rec.durationSec ? [`Duration ${rec.durationSec.toFixed(1)} s${describeFrames(readRecordingFigures(rec))}. The original is kept byte for byte with its SHA-256.`] : []),
+          ...(rec.durationSec ? [`Duration ${formatClockTime(rec.durationSec)}${describeFrames(readRecordingFigures(rec))}. The original is kept byte for byte with its SHA-256.`] : []),
         ]
       : [`Processing ${rec.originalName} in "${rec.jobTitle}" failed: ${rec.failureReason ?? "no reason given"}.`, "The original is kept unchanged; you can ask for it to be processed again."];
     const fact = `processing:${rec.id}:${rec.state}:${rec.processedAt?.getTime() ?? "none"}`;

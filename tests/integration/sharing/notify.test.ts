@@ -84,7 +84,7 @@ describe("processing finished", () => {
     await db().update(s.recordings).set({ figures, durationSec: figures.durationSeconds }).where(eq(s.recordings.id, rec.id));
     await notifyProcessingFinished(rec.id);
     const [mail] = (await mailsTo(crew.pilot)).filter((m) => m.subject.includes("pass-figures.264"));
-    expect(mail.text).toContain("Duration 12.0 s (360 frames, at least 45 lost).");
+    expect(mail.text).toContain("Duration 00:00:12.000 (360 frames, at least 45 lost)."); // the clock notation the player, table and trace use
   });
 
   it("says so when processing failed, with the reason", async () => {
