@@ -26,6 +26,7 @@ import path from "node:path";
 import { readFileSync } from "node:fs";
 import { writeFile } from "node:fs/promises";
 import { damageDemoStream, frames as frameRange } from "@/db/seed/damage-demo-stream";
+import { decoderErrorProbeArgs } from "@/lib/h264/ffmpeg-decode-errors";
 import { deriveRecordingOutputs, type DeriveResult } from "@/lib/media/derive-recording-outputs";
 import { makeRawH264 } from "@/tests/support/media/make-h264";
 
@@ -98,11 +99,8 @@ async function bare(source: string, dir: string, recorded: DeriveResult): Promis
   for (const c of commands) await run("ffmpeg", c);
   const playableMs = Number(process.hrtime.bigint() - t0) / 1e6;
   await run("ffprobe", ["-hide_banner", "-show_streams", "-show_format", files["playable.mp4"]]);
-  // The decoder-error pass exactly as lib/h264/ffmpeg-decode-errors.ts runs it.
-  await run("ffprobe", [
-    "-v", "error", "-threads", "1", "-f", "h264", "-show_log", "16", "-show_packets", "-show_frames",
-    "-show_entries", "packet=pos:frame=pkt_pos,coded_picture_number:log=level,message", "-of", "compact", source,
-  ]);
+  // The decoder-error pass with the arguments lib/media/ffmpeg.ts runs it with.
+  await run("ffprobe", decoderErrorProbeArgs(source));
   await run("ffmpeg", materialize(sprite.slice(0, split), files));
   await run("ffmpeg", materialize(sprite.slice(split + 2), files));
   await run("ffmpeg", materialize(args("poster"), files));

@@ -12,7 +12,7 @@ import { createReadStream, existsSync, statSync } from "node:fs";
 import { mkdir, rename } from "node:fs/promises";
 import os from "node:os";
 import path from "node:path";
-import { readDecoderErrors } from "../lib/h264/ffmpeg-decode-errors";
+import { readH264DecoderErrors } from "../lib/media/ffmpeg";
 import { probeH264File } from "../lib/h264/probe-stream";
 import { summarizeTrace } from "../lib/h264/signal-trace";
 
@@ -95,7 +95,7 @@ async function main(): Promise<void> {
 
   const decode = await timeChild("ffmpeg", ["-v", "error", "-f", "h264", "-i", FILE, "-f", "null", "-"]);
   const crossCheckStarted = performance.now();
-  const report = await readDecoderErrors(FILE);
+  const report = await readH264DecoderErrors(FILE);
   const crossCheck = (performance.now() - crossCheckStarted) / 1000;
 
   const { facts, trace } = result!;

@@ -8,7 +8,6 @@
 // recorder splitting the flight into two files across an outage of about 6 s. The other demo files
 // are clean. Every stream is 432x240 at 30 fps with a burned-in frame counter, a few seconds long, so
 // the seed and the worker stay quick on a fresh machine.
-import { spawn } from "node:child_process";
 import { createReadStream, existsSync } from "node:fs";
 import { mkdtemp, rename, rm } from "node:fs/promises";
 import os from "node:os";
@@ -22,6 +21,7 @@ import { recordCustodyEvent } from "@/lib/custody/record-custody-event";
 import { insertRecordingRow } from "@/lib/ingest/insert-recording-row";
 import { originalKey, placeOriginal } from "@/lib/storage/local-store";
 import { enqueue } from "@/lib/queue/jobs";
+import { runFfmpeg } from "@/lib/media/ffmpeg";
 import { damageDemoStream, frames, type DemoDamage } from "./damage-demo-stream";
 
 export type DemoFile = {
@@ -55,27 +55,25 @@ export const DEMO_FILES: DemoFile[] = [
 
 const COUNTER_FONT = "/usr/share/fonts/truetype/dejavu/DejaVuSans.ttf";
 
-function ffmpeg(args: string[]): Promise<void> {
-  return new Promise((resolve, reject) => {
-    const p = spawn("ffmpeg", ["-hide_banner", "-loglevel", "error", "-y", ...args], { stdio: ["ignore", "ignore", "pipe"] });
-    let err = "";
-    p.stderr.on("data", (d) => (err += d));
-    p.on("error", reject);
-    p.on("close", (code) => (code === 0 ? resolve() : reject(new Error(`ffmpeg failed (${code}): ${err.slice(-400)}`))));
-  });
-}
-
 /** The demo file's raw H.264 stream, damaged as the file says, written into `dir`. */
 export async function generateDemoStream(f: DemoFile, dir: string): Promise<string> {
   const clean = path.join(dir, `clean-${f.name}`);
   // the frame counter needs Debian's DejaVu font (ffmpeg's fontconfig pulls it in); without it, no counter
   const counter = existsSync(COUNTER_FONT) ? ["-vf", `drawtext=fontfile=${COUNTER_FONT}:text=%{frame_num}:fontsize=40:x=8:y=8:fontcolor=white:box=1:boxcolor=black`] : [];
-  await ffmpeg([
-    "-f", "lavfi", "-i", `${f.pattern}=size=432x240:rate=30`, "-t", String(f.seconds),
-    ...counter,
-    "-c:v", "libx264", "-profile:v", "baseline", "-preset", "veryfast", "-b:v", "560k",
-    "-g", "30", "-keyint_min", "30", "-sc_threshold", "0", "-bf", "0", "-pix_fmt", "yuv420p", "-f", "h264", clean,
-  ]);
+  await runFfmpeg({
+    label: "demo stream",
+    input: { source: `${f.pattern}=size=432x240:rate=30`, options: ["-f", "lavfi"], name: "pattern" },
+    output: {
+      path: clean,
+      name: "clean",
+      options: [
+        "-t", String(f.seconds),
+        ...counter,
+        "-c:v", "libx264", "-profile:v", "baseline", "-preset", "veryfast", "-b:v", "560k",
+        "-g", "30", "-keyint_min", "30", "-sc_threshold", "0", "-bf", "0", "-pix_fmt", "yuv420p", "-f", "h264",
+      ],
+    },
+  });
   const file = path.join(dir, f.name);
   if (f.damage) {
     await damageDemoStream(clean, file, f.damage);

@@ -21,10 +21,9 @@
 // Frames the decoder inferred for a frame_num gap get a coded_picture_number but are never output:
 // holes in the coded_picture_number sequence are ffmpeg's view of lost frames.
 //
-// This module is the one place that spawns ffprobe directly (the worker's ffmpeg wrapper can take it over).
+// This module builds the arguments and reads the lines; lib/media/ffmpeg.ts (readH264DecoderErrors) runs
+// ffprobe, like every other ffmpeg and ffprobe call.
 
-import { spawn } from "node:child_process";
-import { createInterface } from "node:readline";
 import { findFrameAtOffset, presentFrameSlots, type SignalTrace } from "./signal-trace";
 
 export interface DecoderError {
@@ -50,17 +49,9 @@ export interface DecoderReport {
   undecodedPacketPositions: number[];
 }
 
-export interface ReadDecoderErrorsOptions {
-  ffprobePath?: string;
-  /** Kill ffprobe after this many milliseconds. Default: no limit. */
-  timeoutMs?: number;
-  signal?: AbortSignal;
-}
-
 const LOG_LEVEL_ERROR = 16; // AV_LOG_ERROR
 const LOG_LEVEL_INFO = 32; // AV_LOG_INFO: error concealment reports at this level
 const CONCEALMENT = /^concealing /;
-const STDERR_KEEP_BYTES = 16 * 1024;
 
 /** Splits a line of ffprobe's compact writer on '|' that are not escaped with a backslash. */
 function splitCompact(line: string): string[] {
@@ -164,9 +155,9 @@ export class DecoderLogCollector {
   }
 }
 
-/** Runs ffprobe over a raw H.264 file and returns the decoder's errors, gaps and dropped packets. */
-export function readDecoderErrors(path: string, options: ReadDecoderErrorsOptions = {}): Promise<DecoderReport> {
-  const args = [
+/** The ffprobe arguments that print packets, frames and decoder messages of a raw H.264 file (see above). */
+export function decoderErrorProbeArgs(path: string): string[] {
+  return [
     "-v", "error",
     "-threads", "1",
     "-f", "h264",
@@ -177,50 +168,6 @@ export function readDecoderErrors(path: string, options: ReadDecoderErrorsOption
     "-of", "compact",
     path,
   ];
-  return new Promise((resolve, reject) => {
-    const child = spawn(options.ffprobePath ?? "ffprobe", args, { stdio: ["ignore", "pipe", "pipe"], signal: options.signal });
-    const collector = new DecoderLogCollector();
-    let stderr = "";
-    let settled = false;
-    const timer =
-      options.timeoutMs !== undefined
-        ? setTimeout(() => {
-            child.kill("SIGKILL");
-            finish(new Error(`ffprobe timed out after ${options.timeoutMs} ms`));
-          }, options.timeoutMs)
-        : null;
-    const finish = (error: Error | null) => {
-      if (settled) return;
-      settled = true;
-      if (timer) clearTimeout(timer);
-      if (error) reject(error);
-      else resolve(collector.report());
-    };
-    child.stderr.setEncoding("utf8");
-    child.stderr.on("data", (text: string) => {
-      // The decoder repeats its errors on stderr; keep only the tail for a failure message.
-      stderr = (stderr + text).slice(-STDERR_KEEP_BYTES);
-    });
-    const lines = createInterface({ input: child.stdout, crlfDelay: Infinity });
-    lines.on("line", (line) => collector.line(line));
-    child.on("error", (error) => finish(error));
-    // Wait for both the exit and the last stdout line.
-    let exitCode: number | null | undefined;
-    let linesClosed = false;
-    const maybeDone = () => {
-      if (exitCode === undefined || !linesClosed) return;
-      if (exitCode === 0) finish(null);
-      else finish(new Error(`ffprobe exited with code ${exitCode}: ${stderr.trim().split("\n").slice(-5).join("\n")}`));
-    };
-    lines.on("close", () => {
-      linesClosed = true;
-      maybeDone();
-    });
-    child.on("close", (code) => {
-      exitCode = code;
-      maybeDone();
-    });
-  });
 }
 
 export interface LocatedDecoderEvents {

@@ -1,10 +1,14 @@
 // The one module that runs ffmpeg and ffprobe (through fluent-ffmpeg, archived upstream: replacing it
 // by child_process.spawn later touches this file only). Every run can be cancelled with an
 // AbortSignal (the child is killed), logs its command line and the tail of stderr when it fails, and
-// reports progress clamped to 0..100.
+// reports progress clamped to 0..100. The one exception to fluent-ffmpeg is runFfprobeLines: its
+// ffprobe() only returns the parsed -show_streams/-show_format output, and the decoder-error pass
+// needs ffprobe's own writer read line by line as it comes.
+import { spawn } from "node:child_process";
+import { createInterface } from "node:readline";
 import ffmpeg from "fluent-ffmpeg";
 import type { Readable } from "node:stream";
-import { readDecoderErrors, type DecoderReport } from "@/lib/h264/ffmpeg-decode-errors";
+import { DecoderLogCollector, decoderErrorProbeArgs, type DecoderReport } from "@/lib/h264/ffmpeg-decode-errors";
 import { progressFromTimemark } from "./progress-from-timemark";
 
 export interface FfmpegInput {
@@ -192,13 +196,60 @@ function summarizeProbeFailure(message: string): string {
   return `ffprobe: ${detail.replace(/^[^:]*\/[^:]*:\s*/, "")}`;
 }
 
+const STDERR_KEEP_BYTES = 16 * 1024;
+
 /**
- * ffmpeg's H.264 decoder errors located per access unit (lib/h264 runs ffprobe for this; it takes the
- * same AbortSignal). Logged like every other tool failure.
+ * ffprobe ARGS with its stdout handed over line by line; resolves once ffprobe has exited with code 0
+ * and the last line is read. An abort kills ffprobe. Rejects with a plain Error (exit code and the
+ * last lines of stderr); callers turn it into a MediaToolError.
+ */
+function runFfprobeLines(args: string[], onLine: (line: string) => void, signal?: AbortSignal): Promise<void> {
+  return new Promise((resolve, reject) => {
+    const child = spawn("ffprobe", args, { stdio: ["ignore", "pipe", "pipe"], signal });
+    let stderr = "";
+    let settled = false;
+    const finish = (error: Error | null) => {
+      if (settled) return;
+      settled = true;
+      if (error) reject(error);
+      else resolve();
+    };
+    child.stderr.setEncoding("utf8");
+    child.stderr.on("data", (text: string) => {
+      // The decoder repeats its errors on stderr; keep only the tail for a failure message.
+      stderr = (stderr + text).slice(-STDERR_KEEP_BYTES);
+    });
+    const lines = createInterface({ input: child.stdout, crlfDelay: Infinity });
+    lines.on("line", onLine);
+    child.on("error", (error) => finish(error));
+    // Wait for both the exit and the last stdout line.
+    let exitCode: number | null | undefined;
+    let linesClosed = false;
+    const maybeDone = () => {
+      if (exitCode === undefined || !linesClosed) return;
+      if (exitCode === 0) finish(null);
+      else finish(new Error(`ffprobe exited with code ${exitCode}: ${stderr.trim().split("\n").slice(-5).join("\n")}`));
+    };
+    lines.on("close", () => {
+      linesClosed = true;
+      maybeDone();
+    });
+    child.on("close", (code) => {
+      exitCode = code;
+      maybeDone();
+    });
+  });
+}
+
+/**
+ * ffmpeg's H.264 decoder errors located per access unit: ffprobe with the arguments and the line reader
+ * of lib/h264/ffmpeg-decode-errors.ts. Takes an AbortSignal; logged like every other tool failure.
  */
 export async function readH264DecoderErrors(path: string, signal?: AbortSignal): Promise<DecoderReport> {
+  const collector = new DecoderLogCollector();
   try {
-    return await readDecoderErrors(path, { signal });
+    await runFfprobeLines(decoderErrorProbeArgs(path), (line) => collector.line(line), signal);
+    return collector.report();
   } catch (err) {
     if (signal?.aborted) throw abortReason(signal);
     const message = err instanceof Error ? err.message : String(err);

@@ -2,7 +2,8 @@ import { mkdtemp, readFile, rm, writeFile } from "node:fs/promises";
 import os from "node:os";
 import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { locateDecoderEvents, readDecoderErrors } from "@/lib/h264/ffmpeg-decode-errors";
+import { locateDecoderEvents } from "@/lib/h264/ffmpeg-decode-errors";
+import { readH264DecoderErrors } from "@/lib/media/ffmpeg";
 import { probeH264File } from "@/lib/h264/probe-stream";
 import {
   FrameFlag,
@@ -84,7 +85,7 @@ describe("clean streams", () => {
     const { trace } = await probeH264File(file);
     expect(trace.lossEvents).toBe(0);
     expect(trace.states.every((s) => s === I)).toBe(true);
-    const report = await readDecoderErrors(file);
+    const report = await readH264DecoderErrors(file);
     expect(report.errors).toEqual([]);
     expect(report.gaps).toEqual([]);
     expect(report.undecodedPacketPositions).toEqual([]);
@@ -120,7 +121,7 @@ describe("access units removed from a 5 s baseline stream (IDR every 30 frames)"
     // ffmpeg's decoder infers gaps (holes in coded_picture_number) before the same frames. It fills
     // at most max_num_ref_frames "non-existing" frames per gap (3 in this SPS; observed: 6 lost -> 3),
     // so its counts are capped there.
-    const located = locateDecoderEvents(await readDecoderErrors(cut), trace);
+    const located = locateDecoderEvents(await readH264DecoderErrors(cut), trace);
     expect(located.gapFrames.map((g) => g.frame)).toEqual(lost.map((i) => streamIndexAtOrAfter(trace, i.endFrame)));
     expect(located.gapFrames.map((g) => g.missingPictures)).toEqual(lost.map((i) => Math.min(3, i.endFrame - i.startFrame)));
   });
@@ -140,7 +141,7 @@ describe("access units removed from a 5 s baseline stream (IDR every 30 frames)"
     expect(trace.flags[nextIdrSlot] & FrameFlag.Idr).toBeTruthy();
     expect(statesOf(trace, lost[0].endFrame, nextIdrSlot).every((s) => s === D)).toBe(true);
     expect(trace.states[nextIdrSlot]).toBe(I);
-    const located = locateDecoderEvents(await readDecoderErrors(cut), trace);
+    const located = locateDecoderEvents(await readH264DecoderErrors(cut), trace);
     const decoderFrames = [...located.damagedFrames, ...located.gapFrames.map((g) => g.frame)];
     expect(decoderFrames.some((f) => Math.abs(f - 60) <= 1)).toBe(true);
   });
@@ -170,7 +171,7 @@ describe("access units removed from a stream with non-reference B-frames", () =>
     // no gap frames here (7.4.3 compares with PrevRefFrameNum, the last *reference* picture's
     // frame_num); it reports missing references in the pictures that predicted from the lost one.
     // Those must all fall where our trace already says damaged.
-    const located = locateDecoderEvents(await readDecoderErrors(cut), trace);
+    const located = locateDecoderEvents(await readH264DecoderErrors(cut), trace);
     expect(located.damagedFrames.length).toBeGreaterThan(0);
     const slots = presentFrameSlots(trace);
     for (const frame of located.damagedFrames) expect(trace.states[slots[frame]]).toBe(D);
@@ -185,7 +186,7 @@ describe("access units removed from a stream with non-reference B-frames", () =>
     const { trace } = await probeH264File(cut);
     expect(trace.lossEvents).toBe(0);
     expect(trace.length).toBe(units.length - 1);
-    expect((await readDecoderErrors(cut)).gaps).toEqual([]);
+    expect((await readH264DecoderErrors(cut)).gaps).toEqual([]);
   });
 });
 
@@ -205,7 +206,7 @@ describe("bytes damaged inside slices", () => {
     const out = path.join(dir, `header-${seed}.264`);
     await writeFile(out, data);
     const { trace } = await probeH264File(out);
-    const located = locateDecoderEvents(await readDecoderErrors(out), trace);
+    const located = locateDecoderEvents(await readH264DecoderErrors(out), trace);
     const decoderFrames = [...located.damagedFrames, ...located.gapFrames.map((g) => g.frame)];
     expect(trace.length).toBe(150);
     for (const f of targets) {
@@ -231,7 +232,7 @@ describe("bytes damaged inside slices", () => {
     const { trace } = await probeH264File(out);
     expect(trace.lossEvents).toBe(0);
 
-    const located = locateDecoderEvents(await readDecoderErrors(out), trace);
+    const located = locateDecoderEvents(await readH264DecoderErrors(out), trace);
     expect(located.damagedFrames).toEqual(dataTargets);
     const { trace: merged, agreement } = mergeDecoderErrors(trace, located.damagedFrames);
     expect(agreement).toMatchObject({ decoderFrames: 4, onlyDecoder: 4, confirmed: 0 });
@@ -267,7 +268,7 @@ describe("slices missing from multi-slice pictures", () => {
     expect(statesOf(trace, 0, 20)).toEqual(all(20, I));
     expect(statesOf(trace, 20, 30)).toEqual(all(10, D));
 
-    const located = locateDecoderEvents(await readDecoderErrors(cut), trace);
+    const located = locateDecoderEvents(await readH264DecoderErrors(cut), trace);
     expect(located.damagedFrames).toEqual([20, 50]);
     expect(mergeDecoderErrors(trace, located.damagedFrames).agreement).toEqual({
       decoderFrames: 2,
@@ -293,7 +294,7 @@ describe("recovery without a leading IDR", () => {
     expect(statesOf(trace, 0, 20)).toEqual(all(20, D));
     expect(statesOf(trace, 20, 80)).toEqual(all(60, I));
     // ffmpeg outputs nothing before the IDR either
-    const located = locateDecoderEvents(await readDecoderErrors(out), trace);
+    const located = locateDecoderEvents(await readH264DecoderErrors(out), trace);
     expect(located.damagedFrames.length).toBeGreaterThan(0);
     expect(located.damagedFrames.every((f) => f < 20)).toBe(true);
   });
