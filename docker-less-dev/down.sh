@@ -1,9 +1,10 @@
 #!/usr/bin/env bash
 # Stops the local services of this checkout's data folder, cleanly (PostgreSQL fast shutdown, Redis
-# SHUTDOWN, the mail server's process group SIGTERM). With arguments, only those of postgres, redis,
-# smtp (the names up.sh writes to CAIRN_STARTED_LIST); without, all three.
+# SHUTDOWN, the mail server's and the time-stamping authority's process groups SIGTERM). With
+# arguments, only those of postgres, redis, smtp, tsa (the names up.sh writes to CAIRN_STARTED_LIST);
+# without, all four.
 source "$(dirname "${BASH_SOURCE[0]}")/lib.sh"
-want=("$@"); [ ${#want[@]} -gt 0 ] || want=(postgres redis smtp)
+want=("$@"); [ ${#want[@]} -gt 0 ] || want=(postgres redis smtp tsa)
 wants() { local w; for w in "${want[@]}"; do [ "$w" = "$1" ] && return 0; done; return 1; }
 
 if wants postgres; then
@@ -22,15 +23,6 @@ if wants redis && redis-cli -h 127.0.0.1 -p "$REDIS_PORT" ping >/dev/null 2>&1; 
     log "Redis on 127.0.0.1:$REDIS_PORT does not keep its data in $REDIS_DIR: left running"
   fi
 fi
-if wants smtp && [ -f "$SMTP_PIDFILE" ]; then
-  pgid="$(cat "$SMTP_PIDFILE")"
-  # the process group up.sh started, if it still runs the mail server (a pid may have been reused)
-  if [ -n "$pgid" ] && ps -o args= -g "$pgid" 2>/dev/null | grep -q "docker-less-dev/fake-smtp.ts"; then
-    kill -TERM -- "-$pgid" 2>/dev/null || true
-    for _ in $(seq 1 50); do ps -g "$pgid" >/dev/null 2>&1 || break; sleep 0.1; done
-    ps -g "$pgid" >/dev/null 2>&1 && kill -KILL -- "-$pgid" 2>/dev/null || true
-    log "fake mail server stopped"
-  fi
-  rm -f "$SMTP_PIDFILE"
-fi
+if wants smtp && stop_node_service docker-less-dev/fake-smtp.ts "$SMTP_PIDFILE"; then log "fake mail server stopped"; fi
+if wants tsa && stop_node_service docker-less-dev/fake-tsa.ts "$TSA_PIDFILE"; then log "fake time-stamping authority stopped"; fi
 exit 0

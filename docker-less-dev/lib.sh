@@ -7,6 +7,7 @@ DATA="${CAIRN_DATA_DIR:-$ROOT/.data}"
 PG_PORT="${CAIRN_PG_PORT:-54329}"
 REDIS_PORT="${CAIRN_REDIS_PORT:-63799}"
 SMTP_PORT="${CAIRN_SMTP_PORT:-2525}"
+TSA_PORT="${CAIRN_TSA_PORT:-3399}"
 PG_DATA="$DATA/postgres"
 PG_RUN="$DATA/postgres-run"
 PG_LOG="$DATA/logs/postgres.log"
@@ -16,7 +17,8 @@ PG_SUPERPASS="cairn_admin_local"
 PG_APPUSER="cairn_app"
 PG_APPPASS="cairn_app_local"
 SMTP_PIDFILE="$DATA/mail-server.pid"
-# When set, up.sh appends the name of each service it started itself (postgres, redis, smtp) to this
+TSA_PIDFILE="$DATA/tsa-server.pid"
+# When set, up.sh appends the name of each service it started itself (postgres, redis, smtp, tsa) to this
 # file, so the caller can stop exactly those and leave alone what was already running.
 STARTED_LIST="${CAIRN_STARTED_LIST:-}"
 
@@ -36,6 +38,7 @@ export_local_env() {
   export STORAGE_DIR="${STORAGE_DIR:-$DATA/storage}"
   export UPLOAD_DIR="${UPLOAD_DIR:-$DATA/uploads}"
   export SECRETS_FILE="${SECRETS_FILE:-$DATA/secrets/installation.json}"
+  export TSA_URL="${TSA_URL:-http://127.0.0.1:$TSA_PORT/}"
 }
 
 pg_bin() {
@@ -48,4 +51,32 @@ pg_bin() {
 # PostgreSQL refuses to run as root: as root we run it as the `postgres` system user.
 as_pg() {
   if [ "$(id -u)" = "0" ]; then runuser -u postgres -- "$@"; else "$@"; fi
+}
+
+port_open() { (exec 3<>"/dev/tcp/127.0.0.1/$1") 2>/dev/null; }
+
+# Starts a node service of docker-less-dev/ (a .ts file run by tsx) in a session of its own, so stopping
+# its process group also stops the node process and the esbuild service that tsx starts. setsid may
+# fork, so the new session's leader writes its own pid to the pid file, then becomes the service. The
+# background subshell's output goes to the log and it execs, so nothing keeps the caller's stdout open
+# (npm test reads up.sh's output to its end). Extra NAME=value arguments are the service's environment.
+start_node_service() {
+  local script="$1" pidfile="$2" logfile="$3"; shift 3
+  (
+    cd "$ROOT" || exit 1
+    exec env "$@" PIDFILE="$pidfile" setsid bash -c 'echo $$ > "$PIDFILE"; exec node_modules/.bin/tsx "$0"' "$script"
+  ) >>"$logfile" 2>&1 </dev/null &
+}
+
+# Stops the process group a pid file names, if it still runs that script (a pid may have been reused).
+stop_node_service() {
+  local script="$1" pidfile="$2" pgid
+  [ -f "$pidfile" ] || return 1
+  pgid="$(cat "$pidfile")"
+  rm -f "$pidfile"
+  [ -n "$pgid" ] && ps -o args= -g "$pgid" 2>/dev/null | grep -q "$script" || return 1
+  kill -TERM -- "-$pgid" 2>/dev/null || true
+  for _ in $(seq 1 50); do ps -g "$pgid" >/dev/null 2>&1 || break; sleep 0.1; done
+  ps -g "$pgid" >/dev/null 2>&1 && kill -KILL -- "-$pgid" 2>/dev/null || true
+  return 0
 }

@@ -7,4 +7,5 @@ if pg_isready -h 127.0.0.1 -p "$PG_PORT" >/dev/null 2>&1; then
   else echo "postgres  up    127.0.0.1:$PG_PORT  but not on this checkout's data ($PG_DATA): another checkout's server?"; fi
 else echo "postgres  down"; fi
 if redis-cli -h 127.0.0.1 -p "$REDIS_PORT" ping >/dev/null 2>&1; then echo "redis     up    127.0.0.1:$REDIS_PORT  data $REDIS_DIR"; else echo "redis     down"; fi
-if (exec 3<>"/dev/tcp/127.0.0.1/$SMTP_PORT") 2>/dev/null; then echo "mail      up    127.0.0.1:$SMTP_PORT  messages $DATA/mail"; else echo "mail      down"; fi
+if port_open "$SMTP_PORT"; then echo "mail      up    127.0.0.1:$SMTP_PORT  messages $DATA/mail"; else echo "mail      down"; fi
+if port_open "$TSA_PORT"; then echo "tsa       up    127.0.0.1:$TSA_PORT  certificates $DATA/tsa"; else echo "tsa       down"; fi

@@ -64,25 +64,31 @@ start_redis() {
 }
 
 start_smtp() {
-  if (exec 3<>"/dev/tcp/127.0.0.1/$SMTP_PORT") 2>/dev/null; then
+  if port_open "$SMTP_PORT"; then
     log "fake mail server already running on 127.0.0.1:$SMTP_PORT"; return
   fi
   mkdir -p "$DATA/mail"
-  # a process group of its own (setsid), so stopping the group also stops the node process and the
-  # esbuild service that tsx starts; its id is kept so down.sh stops this server and no other
-  # (setsid may fork, so the new session's leader writes its own pid, then becomes the server). The
-  # background subshell's own output goes to the log too and it execs, so nothing of it keeps this
-  # script's stdout open: a caller reading that to its end (npm test) is not kept waiting.
-  (
-    cd "$ROOT" || exit 1
-    CAIRN_SMTP_PORT="$SMTP_PORT" MAIL_DIR="$DATA/mail" PIDFILE="$SMTP_PIDFILE" \
-      exec setsid bash -c 'echo $$ > "$PIDFILE"; exec node_modules/.bin/tsx docker-less-dev/fake-smtp.ts'
-  ) >>"$DATA/logs/fake-smtp.log" 2>&1 </dev/null &
-  for _ in $(seq 1 100); do (exec 3<>"/dev/tcp/127.0.0.1/$SMTP_PORT") 2>/dev/null && break; sleep 0.1; done
+  start_node_service docker-less-dev/fake-smtp.ts "$SMTP_PIDFILE" "$DATA/logs/fake-smtp.log" CAIRN_SMTP_PORT="$SMTP_PORT" MAIL_DIR="$DATA/mail"
+  for _ in $(seq 1 100); do port_open "$SMTP_PORT" && break; sleep 0.1; done
   note_started smtp
   log "fake mail server on 127.0.0.1:$SMTP_PORT (messages in $DATA/mail)"
+}
+
+# The local RFC 3161 time-stamping authority that custody checkpoints are stamped by
+# (docker-less-dev/fake-tsa.ts, answering with `openssl ts -reply`).
+start_tsa() {
+  if port_open "$TSA_PORT"; then
+    log "fake time-stamping authority already running on 127.0.0.1:$TSA_PORT"; return
+  fi
+  start_node_service docker-less-dev/fake-tsa.ts "$TSA_PIDFILE" "$DATA/logs/fake-tsa.log" CAIRN_TSA_PORT="$TSA_PORT" CAIRN_TSA_DIR="$DATA/tsa"
+  # the first start makes its CA and TSA certificates (a few openssl runs)
+  for _ in $(seq 1 300); do port_open "$TSA_PORT" && break; sleep 0.1; done
+  port_open "$TSA_PORT" || { log "fake time-stamping authority did not start: see $DATA/logs/fake-tsa.log"; exit 1; }
+  note_started tsa
+  log "fake time-stamping authority on 127.0.0.1:$TSA_PORT (certificates in $DATA/tsa)"
 }
 
 if [ -n "${DATABASE_URL:-}" ]; then log "DATABASE_URL set: using that PostgreSQL"; else start_postgres; fi
 if [ -n "${REDIS_URL:-}" ]; then log "REDIS_URL set: using that Redis"; else start_redis; fi
 if [ -n "${SMTP_URL:-}" ]; then log "SMTP_URL set: using that mail server"; else start_smtp; fi
+if [ -n "${TSA_URL:-}" ]; then log "TSA_URL set: using that time-stamping authority"; else start_tsa; fi

@@ -21,6 +21,7 @@ up_log="$(CAIRN_STARTED_LIST="$started" CAIRN_NEED_BROWSER=1 bash docker-less-de
 grep -q "PostgreSQL already running" <<<"$up_log" && found_running="$found_running PostgreSQL"
 grep -q "Redis already running" <<<"$up_log" && found_running="$found_running Redis"
 grep -q "fake mail server already running" <<<"$up_log" && found_running="$found_running fake-mail-server"
+grep -q "fake time-stamping authority already running" <<<"$up_log" && found_running="$found_running fake-time-stamping-authority"
 echo "[cairn] type check"
 npx tsc --noEmit
 echo "[cairn] unit tests"

@@ -13,7 +13,7 @@ import { E2E_PORT, NEXT_DIST_DIR } from "@/tests/support/test-env";
 const root = path.resolve(__dirname, "../..");
 const slot = Number(process.env.CAIRN_TEST_SLOT ?? 0);
 const dataDir = path.join(root, `.data/start-test${slot ? `-${slot}` : ""}`);
-const ports = { web: E2E_PORT + 5, pg: 54400 + slot, redis: 63800 + slot, smtp: 2600 + slot };
+const ports = { web: E2E_PORT + 5, pg: 54400 + slot, redis: 63800 + slot, smtp: 2600 + slot, tsa: 3400 + slot };
 // Only what a newcomer's shell has: none of the test environment's database or Redis settings.
 const startEnv = {
   PATH: process.env.PATH,
@@ -23,6 +23,7 @@ const startEnv = {
   CAIRN_PG_PORT: String(ports.pg),
   CAIRN_REDIS_PORT: String(ports.redis),
   CAIRN_SMTP_PORT: String(ports.smtp),
+  CAIRN_TSA_PORT: String(ports.tsa),
   PORT: String(ports.web),
   NEXT_DIST_DIR,
 } as unknown as NodeJS.ProcessEnv; // no NODE_ENV: npm start sets what it needs
@@ -124,5 +125,6 @@ describe("npm start on a fresh data folder", () => {
     expect(output).toContain("PostgreSQL stopped");
     expect(output).toContain("Redis stopped");
     expect(output).toContain("fake mail server stopped");
+    expect(output).toContain("fake time-stamping authority stopped");
   }, 20 * 60_000);
 });
