@@ -2,6 +2,7 @@
 // reconciler that rebuilds the queue from Postgres, and the schedule of repeatable jobs. Returns a
 // handle whose stop() shuts everything down within a bound: running jobs get a grace period, then
 // their ffmpeg children are killed and the jobs go back to the queue for the next worker.
+import { describeErrorForLog } from "@/lib/api/describe-error-for-log";
 import { Worker, WaitingError, UnrecoverableError, type Job } from "bullmq";
 import type IORedis from "ioredis";
 import { env } from "@/lib/config/env";
@@ -75,11 +76,11 @@ export async function startWorker(options: StartOptions = {}): Promise<RunningWo
         maxStalledCount: 2,
       },
     );
-    worker.on("error", (err) => console.error(`[worker] ${name}: ${err.message}`));
+    worker.on("error", (err) => console.error(`[worker] ${name}: ${describeErrorForLog(err)}`));
     worker.on("stalled", (jobId) => log(`${name} ${jobId}: stalled (its worker stopped renewing the lock); queued again`));
     worker.on("failed", (job, err) => {
       if (!job) return;
-      void onFailed(name, job, err).catch((e) => console.error(`[worker] could not record the failure of ${job.id}: ${(e as Error).message}`));
+      void onFailed(name, job, err).catch((e) => console.error(`[worker] could not record the failure of ${job.id}: ${describeErrorForLog(e)}`));
     });
     worker.on("completed", (job) => log(`${name} ${job.id}: done`));
     return worker;
@@ -130,10 +131,10 @@ export async function startWorker(options: StartOptions = {}): Promise<RunningWo
   await ensureSchedules();
 
   const reconciles = names.includes("process-recording") || names.includes("extract-still") || names.includes("build-report");
-  if (reconciles) await reconcile().catch((err) => console.error(`[worker] reconciler: ${(err as Error).message}`));
+  if (reconciles) await reconcile().catch((err) => console.error(`[worker] reconciler: ${describeErrorForLog(err)}`));
   const reconcileTimer = setInterval(() => {
-    if (reconciles) reconcile().catch((err) => console.error(`[worker] reconciler: ${(err as Error).message}`));
-    ensureSchedules().catch((err) => console.error(`[worker] schedules: ${(err as Error).message}`));
+    if (reconciles) reconcile().catch((err) => console.error(`[worker] reconciler: ${describeErrorForLog(err)}`));
+    ensureSchedules().catch((err) => console.error(`[worker] schedules: ${describeErrorForLog(err)}`));
   }, timings.reconcileEveryMs);
   reconcileTimer.unref();
 
