@@ -2,10 +2,10 @@
 // JSON: every stored field exactly as hashed, plus prevHash and hash, with the hashing rule written
 // into the file, so anyone can recompute each event's hash without Cairn (a filtered trail is not
 // contiguous: each event's own hash can be recomputed; the links between them only in a full export).
-// CSV (RFC 4180: comma-separated, CRLF line ends, fields with a comma, quote or line break quoted,
-// quotes doubled) for spreadsheets. Text cells that a spreadsheet would run as a formula get a
-// leading apostrophe (OWASP, "CSV Injection"); the JSON export is the exact record.
+// CSV for spreadsheets, written by lib/csv/write-csv.ts (RFC 4180, fields quoted where needed, text
+// cells a spreadsheet would run as a formula guarded); the JSON export is the exact record.
 import type { CustodyEvent } from "@/db/schema/types";
+import { csvRecord } from "@/lib/csv/write-csv";
 
 export type ExportedEvent = CustodyEvent & { actorName: string | null };
 
@@ -38,24 +38,12 @@ export const CSV_COLUMNS = [
   "hash",
 ] as const;
 
-const FORMULA_START = /^[=+\-@\t\r]/;
-
-export function csvCell(value: unknown): string {
-  let text: string;
-  if (value === null || value === undefined) text = "";
-  else if (value instanceof Date) text = value.toISOString();
-  else if (typeof value === "object") text = JSON.stringify(value);
-  else text = String(value);
-  if (typeof value === "string" && FORMULA_START.test(text)) text = `'${text}`;
-  return /[",\r\n]/.test(text) ? `"${text.replace(/"/g, '""')}"` : text;
-}
-
 export function custodyCsvHeader(): string {
-  return CSV_COLUMNS.join(",") + "\r\n";
+  return csvRecord(CSV_COLUMNS);
 }
 
 export function custodyCsvRow(e: ExportedEvent): string {
-  return CSV_COLUMNS.map((c) => csvCell(e[c])).join(",") + "\r\n";
+  return csvRecord(CSV_COLUMNS.map((c) => e[c]));
 }
 
 export function custodyJsonEvent(e: ExportedEvent) {

@@ -1,5 +1,5 @@
 import { fromMetres } from "@/lib/geo";
-import { csvDocument, type CsvValue } from "./csv";
+import { csvDocument, type CsvValue } from "@/lib/csv/write-csv";
 import { LINK_EVENT_META } from "./link-events";
 import type { RangeCheckMeasures } from "./range-check-measures";
 
@@ -74,6 +74,7 @@ export function rangeCheckCsvRecord(r: RangeCheckExportRow): CsvValue[] {
   ];
 }
 
+// Every text field quoted, so a reader never has to guess which cells are text.
 export function buildRangeChecksCsv(rows: readonly RangeCheckExportRow[]): string {
-  return csvDocument(RANGE_CHECK_CSV_HEADER, rows.map(rangeCheckCsvRecord));
+  return csvDocument(RANGE_CHECK_CSV_HEADER, rows.map(rangeCheckCsvRecord), "all-text");
 }
