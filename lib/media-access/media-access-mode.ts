@@ -18,6 +18,6 @@ export interface MediaAccessMode {
   principal(c: MediaCredentials): Promise<MediaPrincipal>;
   /** Whether this principal may open this file (already known to be in its organisation); false answers 404. */
   mayOpen(principal: MediaPrincipal, file: MediaFile): Promise<boolean> | boolean;
-  /** Called once per served response, e.g. to log a share link's media event. Must not throw. */
-  onServed?(principal: MediaPrincipal, file: MediaFile, c: MediaCredentials): Promise<void>;
+  /** Called once per served response (not a 416), e.g. to log a share link's media event. Must not throw. */
+  onServed?(principal: MediaPrincipal, file: MediaFile, c: MediaCredentials, res: Response): Promise<void>;
 }

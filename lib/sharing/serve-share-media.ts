@@ -9,6 +9,7 @@ import { buildRangeResponseHeaders } from "@/lib/http/build-range-response-heade
 import { buildContentDisposition } from "@/lib/http/build-content-disposition";
 import { readKey, statKey } from "@/lib/storage/local-store";
 import { requestFacts } from "@/lib/custody/record-custody-event";
+import { countsAsDownload } from "@/lib/custody/counts-as-download";
 import { DOWNLOAD_KINDS, verifyMediaGrant } from "./media-grant";
 import { resolveShareLinkById } from "./resolve-share-link";
 import { resolveScopedFile } from "./resolve-scoped-file";
@@ -62,7 +63,7 @@ export async function serveShareMedia(req: Request, grantValue: string): Promise
   const headers: Record<string, string> = { ...SHARE_RESPONSE_HEADERS, ...rangeHead.headers, "Content-Type": file.contentType, ...disposition };
   if (range.kind === "unsatisfiable") return new Response(null, { status: 416, headers });
 
-  if (!head && DOWNLOAD_KINDS.has(grant.kind) && (range.kind === "full" || range.start === 0)) {
+  if (DOWNLOAD_KINDS.has(grant.kind) && countsAsDownload(req.method, rangeHead.status, rangeHead.headers["Content-Range"])) {
     await recordShareDownload(link, file, requestFacts(req));
   }
   if (head || stat.size === 0) return new Response(null, { status: rangeHead.status, headers });

@@ -13,6 +13,7 @@ import { resolveShareLinkById, type ResolvedShareLink } from "./resolve-share-li
 import { resolveScopedFile } from "./resolve-scoped-file";
 import { recordShareDownload } from "./record-share-access";
 import { requestFacts } from "@/lib/custody/record-custody-event";
+import { countsAsDownload } from "@/lib/custody/counts-as-download";
 
 type SharePrincipal = Extract<MediaPrincipal, { type: "share-link" }> & { grant: MediaGrant; link: ResolvedShareLink };
 
@@ -49,10 +50,9 @@ export const shareLinkMediaAccess: MediaAccessMode = {
     const scoped = await resolveScopedFile(link, grant.kind, grant.resourceId);
     return scoped !== null && scoped.storageKey === file.storageKey;
   },
-  async onServed(p, _file, c) {
+  async onServed(p, _file, c, res) {
     const { grant, link } = p as SharePrincipal;
-    const range = c.req.headers.get("range");
-    if (!DOWNLOAD_KINDS.has(grant.kind) || c.req.method !== "GET" || (range && !/^bytes=0-/.test(range.trim()))) return;
+    if (!DOWNLOAD_KINDS.has(grant.kind) || !countsAsDownload(c.req.method, res.status, res.headers.get("content-range"))) return;
     const scoped = await resolveScopedFile(link, grant.kind, grant.resourceId);
     if (scoped) await recordShareDownload(link, scoped, requestFacts(c.req)).catch(() => {});
   },

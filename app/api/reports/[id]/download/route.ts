@@ -2,16 +2,16 @@
 import { handleMediaRequest } from "@/lib/media-access/handle-media-request";
 import { idParam } from "@/lib/api/with-org";
 import { recordCustodyEvent, requestFacts } from "@/lib/custody/record-custody-event";
+import { countsAsDownload } from "@/lib/custody/counts-as-download";
 
 type Ctx = { params: Promise<{ id: string }> };
 async function handle(req: Request, ctx: Ctx) {
   const { id } = await ctx.params;
   return handleMediaRequest(req, () => ({ kind: "report", reportId: idParam(id, "Report not found").toLowerCase() }), {
     disposition: "attachment",
-    async onServed({ file, principal }) {
+    async onServed({ file, principal }, res) {
       // one custody entry per download, not per range request of a resuming client
-      const range = req.headers.get("range");
-      if (req.method !== "GET" || (range && !/^bytes=0-/.test(range.trim()))) return;
+      if (!countsAsDownload(req.method, res.status, res.headers.get("content-range"))) return;
       await recordCustodyEvent({
         organisationId: file.organisationId,
         eventType: "download",
