@@ -9,13 +9,12 @@ import { ApiError, notFound } from "@/lib/api/errors";
 import type { Member } from "@/lib/auth/load-member";
 import { can } from "@/lib/auth/permissions";
 import { removeKey, storePath } from "@/lib/storage/local-store";
+import { derivedFolderKey } from "@/lib/storage/storage-keys";
 import { recordCustodyEvent, type RequestFacts } from "./record-custody-event";
 
 type Facts = RequestFacts;
 
 export type DeletionResult = { recordingId: string; deletedAt: Date; removed: string[] };
-
-const derivedFolderOf = (organisationId: string, recordingId: string) => `derived/${organisationId}/${recordingId}`;
 
 async function refuse(member: Member, rec: { id: string; jobId: string; sha256: string; sizeBytes: number; storageKey: string | null }, facts: Facts, why: "role" | "legal_hold", reason: string | null): Promise<never> {
   // its own transaction: the refusal stays on record although the request fails
@@ -78,7 +77,7 @@ export async function deleteRecording(member: Member, recordingId: string, input
         .limit(1);
       if (sharer) originalKey = null;
     }
-    const folder = derivedFolderOf(member.organisationId, recordingId);
+    const folder = derivedFolderKey(member.organisationId, recordingId);
     const keys = [
       ...(originalKey ? [originalKey] : []),
       folder,

@@ -16,6 +16,7 @@ import { db } from "@/db/client";
 import { recordings } from "@/db/schema";
 import { env } from "@/lib/config/env";
 import { removeKey } from "@/lib/storage/local-store";
+import { ORIGINALS_FOLDER } from "@/lib/storage/storage-keys";
 import { recordingIdForUpload } from "./recording-id-for-upload";
 import { settleUpload } from "./settle-upload";
 import { StagingStore } from "./staging-store";
@@ -117,14 +118,14 @@ export async function purgeAbandonedUploads(opts: PurgeOptions = {}): Promise<Pu
 }
 
 async function removeOrphanOriginals(now: number, graceMs: number, pending: Set<string>): Promise<number> {
-  const root = path.join(env().storageDir, "originals");
+  const root = path.join(env().storageDir, ORIGINALS_FOLDER);
   const candidates: { key: string; recordingId: string }[] = [];
   for (const org of await readdir(root).catch(() => [] as string[])) {
     for (const shard of await readdir(path.join(root, org)).catch(() => [] as string[])) {
       for (const file of await readdir(path.join(root, org, shard)).catch(() => [] as string[])) {
         const m = await mtimeOf(path.join(root, org, shard, file));
         if (m === null || now - m < graceMs || pending.has(file)) continue;
-        candidates.push({ key: `originals/${org}/${shard}/${file}`, recordingId: file });
+        candidates.push({ key: `${ORIGINALS_FOLDER}/${org}/${shard}/${file}`, recordingId: file });
       }
     }
   }

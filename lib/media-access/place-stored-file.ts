@@ -6,22 +6,6 @@ import { copyFile, mkdir, open, rename, rm } from "node:fs/promises";
 import path from "node:path";
 import { storePath } from "@/lib/storage/local-store";
 
-const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/;
-function assertId(id: string) {
-  if (!UUID.test(id)) throw new Error(`not an id: ${id}`);
-}
-
-export function stillKey(organisationId: string, recordingId: string, stillId: string): string {
-  [organisationId, recordingId, stillId].forEach(assertId);
-  // outside the recording's derived folder: reprocessing replaces that folder, stills must survive it
-  return `stills/${organisationId}/${recordingId}/${stillId}.jpg`;
-}
-
-export function reportKey(organisationId: string, jobId: string, reportId: string): string {
-  [organisationId, jobId, reportId].forEach(assertId);
-  return `reports/${organisationId}/${jobId}/${reportId}.pdf`;
-}
-
 export async function placeStoredFile(sourcePath: string, key: string): Promise<void> {
   const dest = storePath(key);
   await mkdir(path.dirname(dest), { recursive: true });

@@ -1,28 +1,11 @@
-// The local disk store. Originals live at a path derived from organisation and recording id (never
-// from the user's file name), are made read-only once in place, and are never written again.
+// The local disk store. Originals live at a key built from organisation and recording id
+// (lib/storage/storage-keys.ts), are made read-only once in place, and are never written again.
 // Derived files live in a per-recording folder that the worker replaces as a whole.
 import { constants, createReadStream } from "node:fs";
 import { chmod, copyFile, mkdir, open, rename, rm, stat, unlink } from "node:fs/promises";
 import path from "node:path";
 import { env } from "@/lib/config/env";
-
-const UUID = /^[0-9a-f-]{36}$/;
-function assertId(id: string) {
-  if (!UUID.test(id)) throw new Error(`not an id: ${id}`);
-}
-
-export function originalKey(organisationId: string, recordingId: string): string {
-  assertId(organisationId);
-  assertId(recordingId);
-  return `originals/${organisationId}/${recordingId.slice(0, 2)}/${recordingId}`;
-}
-
-export function derivedKey(organisationId: string, recordingId: string, file: string): string {
-  assertId(organisationId);
-  assertId(recordingId);
-  if (!/^[a-z0-9._-]+$/i.test(file) || file.includes("..")) throw new Error(`bad derived file name: ${file}`);
-  return `derived/${organisationId}/${recordingId}/${file}`;
-}
+import { derivedFolderKey } from "./storage-keys";
 
 /** Absolute path of a stored key; refuses keys that would leave the store. */
 export function storePath(key: string): string {
@@ -86,7 +69,7 @@ export async function removeKey(key: string): Promise<void> {
 
 /** Replaces a derived folder atomically-enough: the new folder is renamed into place, the old one removed. */
 export async function replaceDerivedFolder(organisationId: string, recordingId: string, fromDir: string): Promise<void> {
-  const dest = storePath(`derived/${organisationId}/${recordingId}`);
+  const dest = storePath(derivedFolderKey(organisationId, recordingId));
   await mkdir(path.dirname(dest), { recursive: true });
   const old = `${dest}.old-${process.pid}-${Date.now()}`;
   const had = await stat(dest).then(() => true, () => false);

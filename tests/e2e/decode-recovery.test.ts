@@ -18,7 +18,8 @@ import { makeFlight, makeJob } from "@/tests/support/factories";
 import { makeCounterH264, makeProcessedRecording, type ProcessedRecording } from "@/tests/support/media/make-processed-recording";
 import { makeDamagedH264 } from "@/tests/support/media/make-damaged-h264";
 import { runTool } from "@/tests/support/media/make-h264";
-import { derivedKey, storePath } from "@/lib/storage/local-store";
+import { storePath } from "@/lib/storage/local-store";
+import { derivedKey } from "@/lib/storage/storage-keys";
 import * as shareLinks from "@/app/api/share-links/route";
 import { req } from "@/tests/support/session";
 

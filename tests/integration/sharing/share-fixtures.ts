@@ -8,7 +8,8 @@ import path from "node:path";
 import { eq } from "drizzle-orm";
 import { db } from "@/db/client";
 import * as s from "@/db/schema";
-import { derivedKey, originalKey, storePath } from "@/lib/storage/local-store";
+import { storePath } from "@/lib/storage/local-store";
+import { derivedKey, originalKey } from "@/lib/storage/storage-keys";
 import { makeFlight } from "@/tests/support/factories";
 
 export const sha256 = (b: Buffer | string) => createHash("sha256").update(b).digest("hex");

@@ -8,7 +8,8 @@ import path from "node:path";
 import { db } from "@/db/client";
 import { recordings } from "@/db/schema";
 import type { NewRecording } from "@/db/schema/types";
-import { originalKey, placeOriginal } from "@/lib/storage/local-store";
+import { placeOriginal } from "@/lib/storage/local-store";
+import { originalKey } from "@/lib/storage/storage-keys";
 import { sha256OfStream } from "@/lib/custody/sha256-stream";
 import { makeFlight } from "@/tests/support/factories";
 
