@@ -6,6 +6,7 @@
 // - the WebVTT track by the npm webvtt-parser package (W3C's webvtt.js), the sprite's real pixel size
 //   by ffprobe;
 // - hashes by Node's crypto (SHA-256, FIPS 180-4).
+import { clientOf, tieClientAccount, untieClientAccount } from "@/tests/support/client-scope";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { createHash } from "node:crypto";
 import { readFile, rm, stat, writeFile } from "node:fs/promises";
@@ -198,8 +199,13 @@ describe("a raw H.264 controller stream (432x240, 30 fps, Constrained Baseline)"
     expect(body.applicable).toBe(true);
     expect(body.intervals[0]).toMatchObject({ state: "intact", playableStartSec: 0 });
     expect(body.summary.intactShare).toBe(1);
-    const progress = await progressRoute.GET(await req(actors.client, "GET", `/api/recordings/${id}/progress`), route({ id }));
-    expect(await progress.json()).toMatchObject({ id, state: "ready", progress: 100, failureReason: null });
+    // a client account sees the progress of its own clients' recordings only
+    const asClient = async () => progressRoute.GET(await req(actors.client, "GET", `/api/recordings/${id}/progress`), route({ id }));
+    const clientId = await clientOf({ recordingId: id });
+    await untieClientAccount(actors.client!, clientId);
+    expect((await asClient()).status).toBe(404);
+    await tieClientAccount(actors.client!, clientId);
+    expect(await (await asClient()).json()).toMatchObject({ id, state: "ready", progress: 100, failureReason: null });
     const sse = await progressRoute.GET(await req(actors.pilot, "GET", "/x", undefined, { accept: "text/event-stream" }), route({ id }));
     expect(sse.headers.get("content-type")).toMatch(/^text\/event-stream/);
     // A ready recording: one event, then the stream ends.
