@@ -23,7 +23,5 @@ export type MediaFile = {
   updatedAt: Date;
 };
 
-/** Who is opening a file: a member of the organisation, or (later) a share link. */
-export type MediaPrincipal =
-  | { type: "member"; organisationId: string; userId: string; role: "owner" | "pilot" | "reviewer" | "client"; clientIds: string[] | null }
-  | { type: "share-link"; organisationId: string; shareLinkId: string };
+/** Who is opening a file: a signed-in member of the organisation. */
+export type MediaPrincipal = { organisationId: string; userId: string; role: "owner" | "pilot" | "reviewer" | "client"; clientIds: string[] | null };

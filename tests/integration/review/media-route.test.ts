@@ -5,7 +5,11 @@ import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 import { readFile, readdir } from "node:fs/promises";
 import { createHash } from "node:crypto";
 import * as recordingFile from "@/app/api/media/recordings/[id]/[file]/route";
-import { closeDb } from "@/db/client";
+import { closeDb, db } from "@/db/client";
+import * as s from "@/db/schema";
+import { env } from "@/lib/config/env";
+import { signMediaGrant } from "@/lib/sharing/media-grant";
+import { generateShareToken, hashShareToken } from "@/lib/sharing/share-token";
 import { closeRedis } from "@/lib/queue/redis";
 import { storePath } from "@/lib/storage/local-store";
 import { demoActors, demoOrganisationId, req, type Actor, type DemoActorKey } from "@/tests/support/session";
@@ -162,9 +166,25 @@ describe("authorization on every request", () => {
     expect(forged.status).toBe(401);
   });
 
-  it("a URL carrying a token is judged by the share-link mode alone: a bad token is 401 even with a session", async () => {
-    const res = await media(actors.reviewer, "playable.mp4", { range: "bytes=0-9" }, "GET", rec.recording.id, "?token=not-a-signed-grant");
-    expect(res.status).toBe(401);
+  it("a share link's signed grant opens nothing here (shared media has its own route, /api/s/media): the session alone decides", async () => {
+    const [link] = await db()
+      .insert(s.shareLinks)
+      .values({
+        organisationId: rec.recording.organisationId,
+        jobId: rec.recording.jobId,
+        scope: "recording",
+        recordingId: rec.recording.id,
+        tokenHash: hashShareToken(generateShareToken()),
+        label: "media route test",
+        expiresAt: new Date(Date.now() + 3600_000),
+      })
+      .returning();
+    const grant = signMediaGrant({ linkId: link.id, kind: "playable", resourceId: rec.recording.id, expiresAt: Math.floor(Date.now() / 1000) + 300 }, env().MEDIA_SIGNING_KEY);
+    const anonymous = await media(null, "playable.mp4", { range: "bytes=0-9" }, "GET", rec.recording.id, `?token=${grant}`);
+    expect(anonymous.status).toBe(401);
+    const member = await media(actors.reviewer, "playable.mp4", { range: "bytes=0-9" }, "GET", rec.recording.id, "?token=not-a-signed-grant");
+    expect(member.status).toBe(206);
+    await member.arrayBuffer();
   });
 });
 

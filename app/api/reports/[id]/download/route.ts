@@ -18,7 +18,7 @@ async function handle(req: Request, ctx: Ctx) {
         evidenceType: "report",
         evidenceId: file.id,
         jobId: file.jobId,
-        actor: principal.type === "member" ? { userId: principal.userId, role: principal.role } : { shareLinkId: principal.shareLinkId },
+        actor: { userId: principal.userId, role: principal.role },
         ...requestFacts(req),
         outputSha256: file.sha256,
         purpose: "report download",
