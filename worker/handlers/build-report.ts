@@ -15,11 +15,11 @@ import { loadReportData } from "@/lib/reports/load-report-data";
 import { renderReportPdf } from "@/lib/reports/render-report-pdf";
 import { statKey } from "@/lib/storage/local-store";
 import type { JobPayloads } from "@/lib/queue/jobs";
-import type { HandlerContext } from "./extract-still";
+import type { JobContext } from "./job-context";
 
 export type BuildReportOutcome = "built" | "already-built" | "immutable" | "gone";
 
-export async function buildReport(data: JobPayloads["build-report"], ctx: HandlerContext = {}): Promise<BuildReportOutcome> {
+export async function buildReport(data: JobPayloads["build-report"], ctx: JobContext = {}): Promise<BuildReportOutcome> {
   const [report] = await db().select().from(reports).where(eq(reports.id, data.reportId));
   if (!report) return "gone";
   if (report.state === "approved") return "immutable";

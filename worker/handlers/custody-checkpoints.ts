@@ -2,13 +2,13 @@
 // signs and time-stamps the chain head of every organisation whose custody log grew since its last
 // checkpoint (lib/custody/make-checkpoint.ts). An organisation that could not be stamped (the
 // authority unreachable) fails the job, so BullMQ retries it; the others keep their new checkpoint.
-import type { Job } from "bullmq";
 import type { JobPayloads } from "@/lib/queue/jobs";
+import type { JobContext } from "./job-context";
 import { makeDueCheckpoints } from "@/lib/custody/make-checkpoint";
 
-export async function custodyCheckpointsJob(job: Job<JobPayloads["custody-checkpoints"]>, signal: AbortSignal): Promise<void> {
-  if (signal.aborted) return;
+export async function custodyCheckpoints(_data: JobPayloads["custody-checkpoints"], ctx: JobContext = {}): Promise<void> {
+  if (ctx.signal?.aborted) return;
   const { made, failed } = await makeDueCheckpoints();
-  if (made > 0) console.log(`[worker] custody-checkpoints ${job.id}: ${made} checkpoint(s) made`);
+  if (made > 0) console.log(`[worker] custody-checkpoints ${ctx.queueJobId}: ${made} checkpoint(s) made`);
   if (failed.length) throw new Error(`custody checkpoints failed for ${failed.length} organisation(s): ${failed[0].error}`);
 }

@@ -17,11 +17,11 @@ import { statKey, storePath } from "@/lib/storage/local-store";
 import { sha256OfStream } from "@/lib/custody/sha256-stream";
 import { recordCustodyEvent } from "@/lib/custody/record-custody-event";
 import type { JobPayloads } from "@/lib/queue/jobs";
+import type { JobContext } from "./job-context";
 
-export type HandlerContext = { signal?: AbortSignal; progress?: (percent: number) => Promise<void> | void };
 export type ExtractStillOutcome = "made" | "already-made" | "gone";
 
-export async function extractStill(data: JobPayloads["extract-still"], ctx: HandlerContext = {}): Promise<ExtractStillOutcome> {
+export async function extractStill(data: JobPayloads["extract-still"], ctx: JobContext = {}): Promise<ExtractStillOutcome> {
   const [still] = await db().select().from(stills).where(eq(stills.id, data.stillId));
   if (!still) return "gone";
   if (still.state === "ready" && still.storageKey && (await statKey(still.storageKey))) return "already-made";

@@ -4,7 +4,7 @@
 // (recording, kind), so a second run leaves one identical set. The original is only read.
 import { readdir, rm, mkdir, stat } from "node:fs/promises";
 import path from "node:path";
-import { UnrecoverableError, type Job } from "bullmq";
+import { UnrecoverableError } from "bullmq";
 import { eq } from "drizzle-orm";
 import { db } from "@/db/client";
 import { organisations, recordings } from "@/db/schema";
@@ -16,11 +16,13 @@ import { RecordingRefused } from "@/lib/media/recording-refused";
 import { markRecordingFailed } from "../mark-recording-failed";
 import { notifyProcessingFinished } from "@/lib/notify";
 import { recordingProgressReporter } from "../report-progress";
+import type { JobContext } from "./job-context";
 
 type Payload = JobPayloads["process-recording"];
 
-export async function processRecordingJob(job: Job<Payload>, signal: AbortSignal): Promise<void> {
-  const recordingId = job.data.recordingId;
+export async function processRecording(data: Payload, ctx: JobContext = {}): Promise<void> {
+  const recordingId = data.recordingId;
+  const signal = ctx.signal ?? new AbortController().signal;
   const rec = await loadRecording(recordingId);
   // Gone or deleted since the job was queued: nothing to do, and nothing to retry.
   if (!rec || rec.deletedAt) return;
@@ -45,7 +47,7 @@ export async function processRecordingJob(job: Job<Payload>, signal: AbortSignal
     await removeStaleWorkFolders(workRoot, recordingId);
     await mkdir(workDir, { recursive: true });
 
-    const progress = recordingProgressReporter(job, recordingId);
+    const progress = recordingProgressReporter({ updateProgress: async (p: number) => ctx.progress?.(p) }, recordingId);
     const result = await deriveRecordingOutputs({
       declaredKind: rec.kind,
       originalPath,
@@ -58,7 +60,7 @@ export async function processRecordingJob(job: Job<Payload>, signal: AbortSignal
     await progress.flush();
     if (signal.aborted) throw signal.reason instanceof Error ? signal.reason : new Error("cancelled");
 
-    const committed = await commitRecordingOutputs(rec, result, workDir, { queueJobId: job.id ?? null, attempt: job.attemptsMade + 1 });
+    const committed = await commitRecordingOutputs(rec, result, workDir, { queueJobId: ctx.queueJobId ?? null, attempt: ctx.attempt ?? 1 });
     // the crew hears once per outcome; a mail problem never fails the job (notify never throws)
     if (committed) await notifyProcessingFinished(recordingId);
   } catch (err) {

@@ -10,11 +10,9 @@ import path from "node:path";
 import { eq } from "drizzle-orm";
 import { db } from "@/db/client";
 import * as s from "@/db/schema";
-import type { Job } from "bullmq";
 import { placeOriginal } from "@/lib/storage/local-store";
 import { originalKey } from "@/lib/storage/storage-keys";
-import type { JobPayloads } from "@/lib/queue/jobs";
-import { processRecordingJob } from "@/worker/handlers/process-recording";
+import { processRecording } from "@/worker/handlers/process-recording";
 import { sha256OfStream } from "@/lib/custody/sha256-stream";
 import { MEDIA_CACHE_DIR, runTool } from "./make-h264";
 
@@ -86,8 +84,7 @@ export async function makeProcessedRecording(
   } finally {
     await rm(work, { recursive: true, force: true });
   }
-  const job = { id: `test-${rec.id}`, data: { recordingId: rec.id }, attemptsMade: 0, updateProgress: async () => {} } as unknown as Job<JobPayloads["process-recording"]>;
-  await processRecordingJob(job, new AbortController().signal);
+  await processRecording({ recordingId: rec.id }, { queueJobId: `test-${rec.id}`, attempt: 1 });
   const [ready] = await db().select().from(s.recordings).where(eq(s.recordings.id, rec.id));
   if (ready.state !== "ready") throw new Error(`test recording was not processed: ${ready.state} ${ready.failureReason ?? ""}`);
   const rows = await db().select().from(s.renditions).where(eq(s.renditions.recordingId, rec.id));
