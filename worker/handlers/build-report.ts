@@ -1,5 +1,5 @@
 // Job "build-report": renders one report version to PDF (@react-pdf/renderer), stores it, records its
-// SHA-256, and logs the build in the custody chain. Reloads its row; an approved version is never
+// SHA-256, and logs the build in the custody chain (the commit: lib/reports/commit-built-report.ts). Reloads its row; an approved version is never
 // rebuilt, a built one is left alone; failures mark the version failed and rethrow for a retry.
 import { mkdtemp, rm, writeFile } from "node:fs/promises";
 import { createHash } from "node:crypto";
@@ -8,7 +8,7 @@ import path from "node:path";
 import { and, eq, inArray } from "drizzle-orm";
 import { db } from "@/db/client";
 import { reports } from "@/db/schema";
-import { recordCustodyEvent } from "@/lib/custody/record-custody-event";
+import { commitBuiltReport } from "@/lib/reports/commit-built-report";
 import { placeStoredFile } from "@/lib/media-access/place-stored-file";
 import { reportKey } from "@/lib/storage/storage-keys";
 import { loadReportData } from "@/lib/reports/load-report-data";
@@ -49,29 +49,7 @@ export async function buildReport(data: JobPayloads["build-report"], ctx: JobCon
     const key = reportKey(report.organisationId, report.jobId, report.id);
     await placeStoredFile(file, key);
 
-    await db().transaction(async (tx) => {
-      const [done] = await tx
-        .update(reports)
-        .set({ state: "ready", progress: 100, storageKey: key, sizeBytes: pdf.length, sha256, failureReason: null, updatedAt: new Date() })
-        .where(and(eq(reports.id, report.id), eq(reports.state, "building")))
-        .returning({ id: reports.id });
-      if (!done) throw new Error("the report left the building state while it was rendered");
-      await recordCustodyEvent(
-        {
-          organisationId: report.organisationId,
-          eventType: "report_built",
-          evidenceType: "report",
-          evidenceId: report.id,
-          jobId: report.jobId,
-          actor: { userId: report.createdBy },
-          storageLocation: key,
-          tool: "@react-pdf/renderer",
-          outputSha256: sha256,
-          details: { version: report.version, findings: content.findings.length, recordings: content.recordings.length, sizeBytes: pdf.length },
-        },
-        tx,
-      );
-    });
+    await commitBuiltReport({ report, storageKey: key, sizeBytes: pdf.length, sha256, findings: content.findings.length, recordings: content.recordings.length });
     await ctx.progress?.(100);
     return "built";
   } catch (err) {
