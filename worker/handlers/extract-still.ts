@@ -1,7 +1,7 @@
 // Job "extract-still": the full-resolution picture of a finding's exact frame, taken from the playable
 // rendition (the video the reviewer marked it on; same frames, same timing), stored under its own key,
-// hashed, and recorded in the custody log. Reloads its row; returns quietly when the row is gone or
-// the still is already made; rethrows failures so BullMQ retries.
+// hashed, and recorded in the custody log (the commit: lib/findings/commit-still.ts). Reloads its row;
+// returns quietly when the row is gone or the still is already made; rethrows failures so BullMQ retries.
 import { mkdtemp, rm } from "node:fs/promises";
 import os from "node:os";
 import path from "node:path";
@@ -15,7 +15,7 @@ import { placeStoredFile } from "@/lib/media-access/place-stored-file";
 import { stillKey } from "@/lib/storage/storage-keys";
 import { statKey, storePath } from "@/lib/storage/local-store";
 import { sha256OfStream } from "@/lib/custody/sha256-stream";
-import { recordCustodyEvent } from "@/lib/custody/record-custody-event";
+import { commitStill } from "@/lib/findings/commit-still";
 import type { JobPayloads } from "@/lib/queue/jobs";
 import type { JobContext } from "./job-context";
 
@@ -48,36 +48,7 @@ export async function extractStill(data: JobPayloads["extract-still"], ctx: JobC
     const key = stillKey(still.organisationId, still.recordingId, still.id);
     await placeStoredFile(out, key);
 
-    const made = await db().transaction(async (tx) => {
-      // Only one run makes the still: a second run of the same job (queued again by the reconciler
-      // while the first was still going) waits on the row lock here, then finds it ready and records
-      // nothing, so the still has exactly one custody event.
-      const [won] = await tx
-        .update(stills)
-        .set({ state: "ready", storageKey: key, width: frame.width, height: frame.height, sha256: digest.hex, failureReason: null, updatedAt: new Date() })
-        .where(and(eq(stills.id, still.id), ne(stills.state, "ready")))
-        .returning({ id: stills.id });
-      if (!won) return false;
-      await recordCustodyEvent(
-        {
-          organisationId: still.organisationId,
-          eventType: "derived",
-          evidenceType: "still",
-          evidenceId: still.id,
-          jobId: rec.jobId,
-          originalSha256: rec.sha256,
-          originalSize: rec.sizeBytes,
-          storageLocation: key,
-          purpose: "finding still",
-          tool: frame.tool,
-          toolArgs: frame.args,
-          outputSha256: digest.hex,
-          details: { recordingId: rec.id, findingId: still.findingId, frameNumber: still.frameNumber, ptsTime: frame.ptsTime },
-        },
-        tx,
-      );
-      return true;
-    });
+    const made = await commitStill({ still, recording: rec, storageKey: key, frame, sha256: digest.hex });
     await ctx.progress?.(100);
     return made ? "made" : "already-made";
   } catch (err) {
