@@ -80,3 +80,11 @@ stop_node_service() {
   ps -g "$pgid" >/dev/null 2>&1 && kill -KILL -- "-$pgid" 2>/dev/null || true
   return 0
 }
+
+# For npm start / npm run dev: start the local services, and on this shell's exit stop the ones this
+# run started itself (those found already running are left alone). Call from the script's own shell.
+up_and_stop_on_exit() {
+  CAIRN_STARTED_FILE="$(mktemp)"
+  trap 'list="$(sort -u "$CAIRN_STARTED_FILE" | tr "\n" " ")"; [ -z "${list// /}" ] || bash "$ROOT/docker-less-dev/down.sh" $list || true; rm -f "$CAIRN_STARTED_FILE"' EXIT
+  CAIRN_STARTED_LIST="$CAIRN_STARTED_FILE" bash "$ROOT/docker-less-dev/up.sh"
+}

@@ -5,14 +5,7 @@ set -euo pipefail
 cd "$(dirname "$0")/.."
 source docker-less-dev/lib.sh
 bash scripts/ensure-deps.sh
-started="$(mktemp)"
-stop_started() {
-  local list; list="$(sort -u "$started" | tr '\n' ' ')"
-  [ -z "${list// /}" ] || bash docker-less-dev/down.sh $list || true
-  rm -f "$started"
-}
-trap stop_started EXIT
-CAIRN_STARTED_LIST="$started" bash docker-less-dev/up.sh
+up_and_stop_on_exit
 export_local_env
 npx tsx db/migrate.ts
 npx tsx db/seed.ts

@@ -40,14 +40,23 @@ export async function damageDemoStream(clean: string, out: string, damage: DemoD
     if (header !== null) {
       // the slice header stays readable; noise without zero bytes (no start code) after it
       const from = header - start + 8;
-      const to = Math.min(bytes.length - 2, from + Math.max(16, Math.floor((bytes.length - from) / 2)));
-      let seed = 0x9e3779b9 ^ n;
-      for (let i = from; i < to; i++) {
-        seed = (Math.imul(seed, 1103515245) + 12345) >>> 0;
-        bytes[i] = 1 + ((seed >>> 16) % 255);
-      }
+      scrambleFrom(bytes, from, n);
     }
     parts.push(bytes);
   });
   await writeFile(out, Buffer.concat(parts));
+}
+
+/**
+ * Overwrites a stretch of a NAL unit, from byte `from` to about half of what follows, with
+ * pseudo-random bytes that are never zero, so no start code can appear in them; the seed is fixed
+ * (salted with `salt`), so the same stream is damaged the same way every run.
+ */
+export function scrambleFrom(bytes: Buffer, from: number, salt: number): void {
+  const to = Math.min(bytes.length - 2, from + Math.max(16, Math.floor((bytes.length - from) / 2)));
+  let seed = 0x9e3779b9 ^ salt;
+  for (let i = from; i < to; i++) {
+    seed = (Math.imul(seed, 1103515245) + 12345) >>> 0;
+    bytes[i] = 1 + ((seed >>> 16) % 255);
+  }
 }

@@ -1,6 +1,7 @@
 // Damage applied to a raw H.264 stream in Node, at access units found by ffprobe's packet positions
 // (ffmpeg's own H.264 parser: a splitter independent of lib/h264). Frame numbers are the clean
 // stream's 0-based decoding-order indexes (no B-frames: also display order).
+import { scrambleFrom } from "@/db/seed/damage-demo-stream";
 import { readFile, writeFile } from "node:fs/promises";
 import { runTool } from "./make-h264";
 
@@ -61,12 +62,7 @@ export async function damageH264(clean: string, out: string, damage: StreamDamag
     if (scrambled.has(n)) {
       // The slice header stays readable (the picture is still seen); the data after it is noise.
       const from = sliceHeaderAt(data, start, end) - start + 8;
-      const to = Math.min(bytes.length - 2, from + Math.max(16, Math.floor((bytes.length - from) / 2)));
-      let seed = 0x9e3779b9 ^ n;
-      for (let i = from; i < to; i++) {
-        seed = (Math.imul(seed, 1103515245) + 12345) >>> 0;
-        bytes[i] = 1 + ((seed >>> 16) % 255);
-      }
+      scrambleFrom(bytes, from, n);
     }
     parts.push(bytes);
   });

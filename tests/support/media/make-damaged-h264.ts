@@ -3,6 +3,7 @@
 // Pictures are found by their NAL unit headers (ITU-T H.264 Annex B start codes; nal_unit_type 1 and 5
 // are coded slices, 6-9 are SEI/SPS/PPS/AUD and belong to the next picture). x264 writes one slice per
 // picture by default, so slice n is picture n in decoding order (no B-frames: also display order).
+import { scrambleFrom } from "@/db/seed/damage-demo-stream";
 import { readFile, writeFile } from "node:fs/promises";
 import path from "node:path";
 import { MEDIA_CACHE_DIR } from "./make-h264";
@@ -65,12 +66,7 @@ export async function makeDamagedH264(cleanPath: string, damage: Damage, name: s
       // stretch of the data after it with pseudo-random bytes that are never zero, so no start code
       // can appear (a fixed seed: the same stream every run)
       const from = p.sliceHeader - p.start + 6;
-      const to = Math.min(bytes.length - 2, from + Math.max(16, Math.floor((bytes.length - from) / 2)));
-      let seed = 0x9e3779b9 ^ n;
-      for (let i = from; i < to; i++) {
-        seed = (Math.imul(seed, 1103515245) + 12345) >>> 0;
-        bytes[i] = 1 + ((seed >>> 16) % 255);
-      }
+      scrambleFrom(bytes, from, n);
     }
     parts.push(bytes);
   });
