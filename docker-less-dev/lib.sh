@@ -22,7 +22,9 @@ TSA_PIDFILE="$DATA/tsa-server.pid"
 # file, so the caller can stop exactly those and leave alone what was already running.
 STARTED_LIST="${CAIRN_STARTED_LIST:-}"
 
-log() { printf '[cairn-dev] %s\n' "$*"; }
+# A log line never stops a script: after Ctrl-C, stdout may be a pipe whose reader (`| tee`) is gone,
+# and the services must still be stopped.
+log() { printf '[cairn-dev] %s\n' "$*" 2>/dev/null || true; }
 
 note_started() { if [ -n "$STARTED_LIST" ]; then echo "$1" >> "$STARTED_LIST"; fi; }
 
@@ -85,6 +87,7 @@ stop_node_service() {
 # run started itself (those found already running are left alone). Call from the script's own shell.
 up_and_stop_on_exit() {
   CAIRN_STARTED_FILE="$(mktemp)"
-  trap 'list="$(sort -u "$CAIRN_STARTED_FILE" | tr "\n" " ")"; [ -z "${list// /}" ] || bash "$ROOT/docker-less-dev/down.sh" $list || true; rm -f "$CAIRN_STARTED_FILE"' EXIT
+  # the stop ignores a second Ctrl-C and a closed stdout (SIGPIPE), so it always runs to its end
+  trap 'trap "" INT PIPE; list="$(sort -u "$CAIRN_STARTED_FILE" | tr "\n" " ")"; [ -z "${list// /}" ] || bash "$ROOT/docker-less-dev/down.sh" $list || true; rm -f "$CAIRN_STARTED_FILE"' EXIT
   CAIRN_STARTED_LIST="$CAIRN_STARTED_FILE" bash "$ROOT/docker-less-dev/up.sh"
 }

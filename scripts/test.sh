@@ -10,10 +10,11 @@ started="$(mktemp)"
 found_running=""
 stop_started() {
   local status=$? list
+  trap "" INT PIPE # a second Ctrl-C or a closed stdout must not cut the stop short
   list="$(sort -u "$started" | tr '\n' ' ')"
   [ -z "${list// /}" ] || bash docker-less-dev/down.sh $list || true
   rm -f "$started"
-  [ -z "$found_running" ] || echo "[cairn] left running, as found before the tests:$found_running"
+  [ -z "$found_running" ] || echo "[cairn] left running, as found before the tests:$found_running" || true
   exit $status
 }
 trap stop_started EXIT
