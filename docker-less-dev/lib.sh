@@ -41,6 +41,8 @@ export_local_env() {
   export UPLOAD_DIR="${UPLOAD_DIR:-$DATA/uploads}"
   export SECRETS_FILE="${SECRETS_FILE:-$DATA/secrets/installation.json}"
   export TSA_URL="${TSA_URL:-http://127.0.0.1:$TSA_PORT/}"
+  # Next.js would otherwise try to send anonymous usage data: nothing of ours reaches out at run time
+  export NEXT_TELEMETRY_DISABLED=1
 }
 
 pg_bin() {

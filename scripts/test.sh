@@ -5,6 +5,7 @@
 set -euo pipefail
 cd "$(dirname "$0")/.."
 export VITE_CONFIG_NATIVE_IGNORE_WARNING=true
+export NEXT_TELEMETRY_DISABLED=1 # the build sends no usage data
 bash scripts/ensure-deps.sh
 started="$(mktemp)"
 found_running=""
