@@ -6,6 +6,9 @@ export async function register() {
   // every request carries the socket address it came from (lib/http/client-address.ts)
   const { installPeerAddress } = await import("@/lib/http/install-peer-address");
   installPeerAddress();
+  // Content-Length that Next would drop from media responses (lib/http/content-length-carrier.ts)
+  const { installContentLengthCarrier } = await import("@/lib/http/content-length-carrier");
+  installContentLengthCarrier();
   const { requireSecrets } = await import("@/lib/config/env");
   requireSecrets();
   // settings that lose acknowledged work in a crash are printed, never fatal (lib/config/check-durability.ts)

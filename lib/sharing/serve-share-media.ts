@@ -6,6 +6,7 @@ import { Readable } from "node:stream";
 import { env } from "@/lib/config/env";
 import { parseRange } from "@/lib/http/parse-range";
 import { buildRangeResponseHeaders } from "@/lib/http/build-range-response-headers";
+import { contentLengthHeaders } from "@/lib/http/content-length-carrier";
 import { buildContentDisposition } from "@/lib/http/build-content-disposition";
 import { readKey, statKey } from "@/lib/storage/local-store";
 import { requestFacts } from "@/lib/custody/record-custody-event";
@@ -54,7 +55,7 @@ export async function serveShareMedia(req: Request, grantValue: string): Promise
     const body = rewriteThumbnailTrack(await readAll(file.storageKey), sprite);
     return new Response(head ? null : body, {
       status: 200,
-      headers: { ...SHARE_RESPONSE_HEADERS, "Content-Type": "text/vtt; charset=utf-8", "Content-Length": String(Buffer.byteLength(body)) },
+      headers: { ...SHARE_RESPONSE_HEADERS, "Content-Type": "text/vtt; charset=utf-8", ...contentLengthHeaders(Buffer.byteLength(body)) },
     });
   }
 

@@ -52,7 +52,7 @@ describe("buildRangeResponseHeaders (RFC 9110 14.3, 14.4, 15.3.7, 15.5.17)", () 
   it("206 for the first 500 bytes: Content-Range bytes 0-499/10000, Content-Length 500", () => {
     expect(buildRangeResponseHeaders(parseRange("bytes=0-499", LENGTH), LENGTH)).toEqual({
       status: 206,
-      headers: { "Accept-Ranges": "bytes", "Content-Range": "bytes 0-499/10000", "Content-Length": "500" },
+      headers: { "Accept-Ranges": "bytes", "Content-Range": "bytes 0-499/10000", "Content-Length": "500", "x-cairn-content-length": "500" },
     });
   });
 
@@ -66,18 +66,18 @@ describe("buildRangeResponseHeaders (RFC 9110 14.3, 14.4, 15.3.7, 15.5.17)", () 
   it("416 with Content-Range bytes */LENGTH when unsatisfiable", () => {
     expect(buildRangeResponseHeaders(parseRange("bytes=10000-", LENGTH), LENGTH)).toEqual({
       status: 416,
-      headers: { "Accept-Ranges": "bytes", "Content-Range": "bytes */10000", "Content-Length": "0" },
+      headers: { "Accept-Ranges": "bytes", "Content-Range": "bytes */10000", "Content-Length": "0", "x-cairn-content-length": "0" },
     });
   });
 
   it("200 with the full length and Accept-Ranges when there is no usable Range", () => {
     expect(buildRangeResponseHeaders(parseRange(null, LENGTH), LENGTH)).toEqual({
       status: 200,
-      headers: { "Accept-Ranges": "bytes", "Content-Length": "10000" },
+      headers: { "Accept-Ranges": "bytes", "Content-Length": "10000", "x-cairn-content-length": "10000" },
     });
     expect(buildRangeResponseHeaders(parseRange("bytes=-1", 0), 0)).toEqual({
       status: 200,
-      headers: { "Accept-Ranges": "bytes", "Content-Length": "0" },
+      headers: { "Accept-Ranges": "bytes", "Content-Length": "0", "x-cairn-content-length": "0" },
     });
   });
 
