@@ -90,7 +90,12 @@ describe("decode-error safety net", () => {
         }),
       src,
     );
-    expect(bare.error).toBe(3); // MEDIA_ERR_DECODE
+    // the address itself serves the file (so a refusal cannot pass for a decoder failure below)
+    expect(await page.evaluate(async (url) => (await fetch(url, { headers: { range: "bytes=0-99" } })).status, src)).toBe(206);
+    // Chromium answers MEDIA_ERR_DECODE (3) when it meets the broken pictures after it started, and
+    // sometimes MEDIA_ERR_SRC_NOT_SUPPORTED (4) when its pipeline meets them while still starting
+    // (seen once in a fresh clone, 0.7 s after play): either way the element stops for good
+    expect([3, 4]).toContain(bare.error);
     expect(bare.ended).toBe(false);
   });
 
