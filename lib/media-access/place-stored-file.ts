@@ -4,12 +4,15 @@
 import { constants } from "node:fs";
 import { copyFile, mkdir, open, rename, rm } from "node:fs/promises";
 import path from "node:path";
+import { randomUUID } from "node:crypto";
 import { storePath } from "@/lib/storage/local-store";
 
 export async function placeStoredFile(sourcePath: string, key: string): Promise<void> {
   const dest = storePath(key);
   await mkdir(path.dirname(dest), { recursive: true });
-  const temp = `${dest}.part-${process.pid}-${Date.now()}`;
+  // unique per call: two runs of one job in one process (a still's job delivered twice, concurrency 2)
+  // can start in the same millisecond, and must neither collide on nor remove each other's temp file
+  const temp = `${dest}.part-${process.pid}-${randomUUID()}`;
   try {
     await copyFile(sourcePath, temp, constants.COPYFILE_EXCL);
     const fh = await open(temp, "r");
