@@ -4,7 +4,8 @@
 import { and, eq, inArray } from "drizzle-orm";
 import { db, type DbOrTx } from "@/db/client";
 import { clients, membershipClients, memberships } from "@/db/schema";
-import { ApiError, notFound } from "@/lib/api/errors";
+import { ApiError } from "@/lib/api/errors";
+import { lockMembership } from "./members";
 
 /** The given client ids, each checked to be one of the organisation's clients (422 on clientIds otherwise). */
 export async function clientsOfOrganisation(tx: DbOrTx, orgId: string, clientIds: string[]): Promise<string[]> {
@@ -18,12 +19,7 @@ export async function clientsOfOrganisation(tx: DbOrTx, orgId: string, clientIds
 /** Replaces the client ties of a client account. */
 export async function setMemberClients(orgId: string, userId: string, clientIds: string[]) {
   return db().transaction(async (tx) => {
-    const [m] = await tx
-      .select({ id: memberships.id, role: memberships.role })
-      .from(memberships)
-      .where(and(eq(memberships.organisationId, orgId), eq(memberships.userId, userId)))
-      .for("update");
-    if (!m) throw notFound("Member not found");
+    const m = await lockMembership(tx, orgId, userId);
     if (m.role !== "client") throw new ApiError("conflict", "Only client accounts are tied to clients; the crew sees the whole organisation.");
     const ids = await clientsOfOrganisation(tx, orgId, clientIds);
     await tx.delete(membershipClients).where(eq(membershipClients.membershipId, m.id));

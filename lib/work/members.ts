@@ -49,7 +49,8 @@ async function ownerCount(tx: DbOrTx, orgId: string): Promise<number> {
   return rows.length;
 }
 
-async function lockMembership(tx: DbOrTx, orgId: string, userId: string) {
+/** The membership row of a person in an organisation, locked for the rest of the transaction (404 when none). */
+export async function lockMembership(tx: DbOrTx, orgId: string, userId: string) {
   const [m] = await tx
     .select({ id: memberships.id, role: memberships.role })
     .from(memberships)
