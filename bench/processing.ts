@@ -7,7 +7,7 @@
 //   bare     the very commands the pipeline runs (remux, ffprobe of the MP4, the decoder-error pass,
 //            thumbnail tiles, sprite, poster), spawned one after the other with
 //            their output thrown away: the floor any pipeline built on ffmpeg pays.
-//   pipeline lib/media/derive-recording-outputs.ts: our streaming Annex B scan and signal trace, the
+//   pipeline lib/processing/derive-recording-outputs.ts: our streaming Annex B scan and signal trace, the
 //            same ffmpeg commands through the fluent-ffmpeg wrapper with progress, the decoder
 //            errors parsed and merged into the trace, the WebVTT track, SHA-256 of every output.
 // Not included in either: the queue and the final Postgres transaction (a handful of rows).
@@ -15,7 +15,7 @@
 //
 // Two cases: a clean stream (the copy path) and the same stream damaged as a fading link damages it
 // (every 10 s: 13 frames lost mid-group, a frame lost before an IDR, a P picture scrambled), which
-// takes the re-encode path (lib/media/plan-timed-reencode.ts). For each: the time from the end of the
+// takes the re-encode path (lib/processing/plan-timed-reencode.ts). For each: the time from the end of the
 // upload (the original in place) to a final playable MP4, the whole pipeline against the bare
 // commands, and the real-time factor; for the damaged case also the re-encode alone (target >= 30x
 // real time for 432x240 on 2 cores).
@@ -27,7 +27,7 @@ import { readFileSync } from "node:fs";
 import { writeFile } from "node:fs/promises";
 import { damageDemoStream, frames as frameRange } from "@/db/seed/damage-demo-stream";
 import { decoderErrorProbeArgs } from "@/lib/h264/ffmpeg-decode-errors";
-import { deriveRecordingOutputs, type DeriveResult } from "@/lib/media/derive-recording-outputs";
+import { deriveRecordingOutputs, type DeriveResult } from "@/lib/processing/derive-recording-outputs";
 import { makeRawH264 } from "@/tests/support/media/make-h264";
 
 const minutes = Number(process.env.BENCH_MINUTES ?? 10);
@@ -42,7 +42,7 @@ function run(command: string, args: string[]): Promise<void> {
   });
 }
 
-/** The recorded arguments with their file names put back (see describeArgs in lib/media/ffmpeg.ts). */
+/** The recorded arguments with their file names put back (see describeArgs in lib/processing/ffmpeg.ts). */
 function materialize(args: string[], files: Record<string, string>): string[] {
   return args.map((a) => a.replace(/^\{(.+)\}$/, (_m, name: string) => files[name] ?? (() => { throw new Error(`no file for ${name}`); })()));
 }
@@ -99,7 +99,7 @@ async function bare(source: string, dir: string, recorded: DeriveResult): Promis
   for (const c of commands) await run("ffmpeg", c);
   const playableMs = Number(process.hrtime.bigint() - t0) / 1e6;
   await run("ffprobe", ["-hide_banner", "-show_streams", "-show_format", files["playable.mp4"]]);
-  // The decoder-error pass with the arguments lib/media/ffmpeg.ts runs it with.
+  // The decoder-error pass with the arguments lib/processing/ffmpeg.ts runs it with.
   await run("ffprobe", decoderErrorProbeArgs(source));
   await run("ffmpeg", materialize(sprite.slice(0, split), files));
   await run("ffmpeg", materialize(sprite.slice(split + 2), files));

@@ -12,7 +12,7 @@ import { createReadStream, existsSync, statSync } from "node:fs";
 import { mkdir, rename } from "node:fs/promises";
 import os from "node:os";
 import path from "node:path";
-import { readH264DecoderErrors } from "../lib/media/ffmpeg";
+import { readH264DecoderErrors } from "../lib/processing/ffmpeg";
 import { probeH264File } from "../lib/h264/probe-stream";
 import { summarizeTrace } from "../lib/h264/signal-trace";
 

@@ -84,7 +84,7 @@ async function main() {
   const { removeKey } = await import("@/lib/storage/local-store");
   const { closeQueues } = await import("@/lib/queue/jobs");
   const { closeRedis } = await import("@/lib/queue/redis");
-  const { UPLOAD_CHUNK_BYTES } = await import("@/lib/ingest/upload-limits");
+  const { UPLOAD_CHUNK_BYTES } = await import("@/lib/uploads/upload-limits");
   const { actorByEmail, sessionCookie } = await import("@/tests/support/session");
   const { makeFlight } = await import("@/tests/support/factories");
   const { makeRawH264 } = await import("@/tests/support/media/make-h264");

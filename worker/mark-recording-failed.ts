@@ -4,7 +4,7 @@
 import { and, eq, inArray } from "drizzle-orm";
 import { db } from "@/db/client";
 import { recordings } from "@/db/schema";
-import { notifyProcessingFinished } from "@/lib/notify";
+import { notifyProcessingFinished } from "@/lib/mail/notifications";
 
 const MAX_REASON = 400; // characters
 

@@ -5,7 +5,7 @@ import { eq } from "drizzle-orm";
 import type { Job } from "bullmq";
 import { db } from "@/db/client";
 import { recordings } from "@/db/schema";
-import { clampPercent } from "@/lib/media/progress-from-timemark";
+import { clampPercent } from "@/lib/processing/progress-from-timemark";
 
 const MIN_INTERVAL_MS = 1500; // 1.5 s between writes
 

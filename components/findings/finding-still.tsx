@@ -2,7 +2,7 @@
 // The still of a finding, or what is happening to it: being extracted, or failed with a way to retry.
 import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { fetchJson } from "@/components/fetch-json";
-import { stillUrl } from "@/lib/media-access/media-urls";
+import { stillUrl } from "@/lib/media-serving/media-urls";
 import type { FindingItem } from "./finding-types";
 
 export function FindingStill({ finding, canWrite, width = 160 }: { finding: FindingItem; canWrite: boolean; width?: number }) {

@@ -4,7 +4,7 @@
 import Link from "next/link";
 import { describeMoment, formatMoment } from "@/lib/findings/describe-moment";
 import { SEVERITIES_WORST_FIRST, SEVERITY_SCALE } from "@/lib/findings/severity-scale";
-import { frameRateFromFps } from "@/lib/findings/recording-frame-rate";
+import { frameRateFromFps } from "@/lib/recordings/recording-frame-rate";
 import { FindingStone } from "./finding-stone";
 import { FindingNote } from "./finding-note";
 import { FindingStill } from "./finding-still";

@@ -3,7 +3,7 @@
 // signed-in member (the collector reads the session) or, on a shared page, the page's signed media
 // address sent as the view's access token (custom_1), which names the share link.
 import type videojs from "video.js";
-import { beaconCollectionDomain } from "@/lib/playback/beacon-collection-domain";
+import { beaconCollectionDomain } from "@/lib/playback-analytics/beacon-collection-domain";
 
 type Player = ReturnType<typeof videojs>;
 

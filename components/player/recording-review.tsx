@@ -14,7 +14,7 @@ import { FindingHistory } from "@/components/findings/finding-history";
 import { CategoriesEditor } from "@/components/findings/categories-editor";
 import { useCategories, useFindings } from "@/components/findings/use-findings";
 import type { FindingItem } from "@/components/findings/finding-types";
-import type { RecordingPageData } from "@/lib/findings/load-recording-page";
+import type { RecordingPageData } from "@/lib/recordings/load-recording-page";
 import { ReviewPlayer, type ReviewPlayerHandle } from "./review-player";
 import { BoxOverlay } from "./box-overlay";
 import { TimecodeReadout } from "./timecode-readout";

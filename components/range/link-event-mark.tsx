@@ -1,5 +1,5 @@
 // A link event as a shape and a word together: the shape matches the chart's marker, the word says it.
-import { LINK_EVENT_META, type LinkEvent } from "@/lib/range/link-events";
+import { LINK_EVENT_META, type LinkEvent } from "@/lib/range-checks/link-events";
 
 export function LinkEventShape({ event, size = 12 }: { event: LinkEvent; size?: number }) {
   const shape = LINK_EVENT_META[event].shape;

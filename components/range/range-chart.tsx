@@ -7,9 +7,9 @@ import { CartesianGrid, LabelList, Legend, ResponsiveContainer, Scatter, Scatter
 import { SelectField } from "@/components/ui/field";
 import { fetchJson } from "@/components/fetch-json";
 import { fromMetres } from "@/lib/geo";
-import { CHART_DIMENSIONS, CHART_DIMENSION_LABELS, type ChartDimension, type RangeChartData } from "@/lib/range/aggregate-range-chart";
-import { LINK_EVENTS, LINK_EVENT_META, type LinkEvent } from "@/lib/range/link-events";
-import { formatMetresIn } from "@/lib/range/format-figures";
+import { CHART_DIMENSIONS, CHART_DIMENSION_LABELS, type ChartDimension, type RangeChartData } from "@/lib/range-checks/aggregate-range-chart";
+import { LINK_EVENTS, LINK_EVENT_META, type LinkEvent } from "@/lib/range-checks/link-events";
+import { formatMetresIn } from "@/lib/range-checks/format-figures";
 import type { DisplayUnits } from "@/lib/validation/range-checks";
 import { LinkEventMark } from "./link-event-mark";
 

@@ -1,6 +1,6 @@
 // Shapes of the range-check API's answers as the browser receives them (dates as ISO text).
-import type { LinkEvent } from "@/lib/range/link-events";
-import type { RangeCheckMeasures } from "@/lib/range/range-check-measures";
+import type { LinkEvent } from "@/lib/range-checks/link-events";
+import type { RangeCheckMeasures } from "@/lib/range-checks/range-check-measures";
 
 export type RangeCheckRow = RangeCheckMeasures & {
   id: string;

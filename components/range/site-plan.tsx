@@ -4,8 +4,8 @@
 // Click to place the target; or focus the plan and move the target with the arrow keys.
 import { useId, useMemo, useRef, useState } from "react";
 import { fromMetres, inverse, toMetres, type GeoPoint } from "@/lib/geo";
-import { fromPlan, roundLengthBelow, toPlan } from "@/lib/range/plan-projection";
-import { formatBearing, formatMetresIn } from "@/lib/range/format-figures";
+import { fromPlan, roundLengthBelow, toPlan } from "@/lib/range-checks/plan-projection";
+import { formatBearing, formatMetresIn } from "@/lib/range-checks/format-figures";
 import type { DisplayUnits } from "@/lib/validation/range-checks";
 
 const SIZE = 480;

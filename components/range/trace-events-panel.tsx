@@ -4,7 +4,7 @@ import { useQuery } from "@tanstack/react-query";
 import { fetchJson } from "@/components/fetch-json";
 import { formatMomentSec } from "@/components/trace/trace-summary";
 import { LinkEventMark } from "./link-event-mark";
-import { LINK_EVENT_META } from "@/lib/range/link-events";
+import { LINK_EVENT_META } from "@/lib/range-checks/link-events";
 import type { TraceEventItem, TraceEventsAnswer } from "./range-check-types";
 
 export function TraceEventsPanel({

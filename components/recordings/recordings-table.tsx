@@ -9,7 +9,7 @@ import { useState } from "react";
 import { fetchJson } from "@/components/fetch-json";
 import { EmptyState } from "@/components/ui/empty-state";
 import { HashText } from "@/components/ui/hash-text";
-import { formatBytes } from "@/lib/ingest/format-bytes";
+import { formatBytes } from "@/lib/uploads/format-bytes";
 import { formatClockTime } from "@/lib/timecode/format-clock-time";
 
 export type RecordingRow = {

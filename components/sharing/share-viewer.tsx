@@ -9,7 +9,7 @@ import { CairnMark } from "@/components/ui/cairn-mark";
 import { HashText } from "@/components/ui/hash-text";
 import { formatClockTime } from "@/lib/timecode/format-clock-time";
 import { describeMoment } from "@/lib/findings/describe-moment";
-import { frameRateFromFps } from "@/lib/findings/recording-frame-rate";
+import { frameRateFromFps } from "@/lib/recordings/recording-frame-rate";
 import type { FrameRate } from "@/lib/timecode/frame-rate";
 import { frameOnScreen, seekTimeForFrame } from "@/components/player/frame-seek";
 import type { ShareView, ShareViewFinding } from "@/lib/sharing/build-share-view";

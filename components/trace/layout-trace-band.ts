@@ -4,8 +4,8 @@
 // and the numbered link events in time order. Short intervals get a minimum drawn width in pixels, so
 // a 13-frame loss in a 20-minute recording is still a visible, clickable mark.
 import { formatClockTime } from "@/lib/timecode/format-clock-time";
-import { LINK_EVENT_META, type LinkEvent } from "@/lib/range/link-events";
-import { linkEventForInterval } from "@/lib/range/trace-interval-event";
+import { LINK_EVENT_META, type LinkEvent } from "@/lib/range-checks/link-events";
+import { linkEventForInterval } from "@/lib/range-checks/trace-interval-event";
 
 export type LinkState = "intact" | "damaged" | "lost";
 
@@ -89,7 +89,7 @@ export interface BandEvent {
 /**
  * The link events of a recording, numbered in time order: a damaged interval starts "picture
  * breaking up", a lost one "video lost", an intact one after either "video back" (the same mapping
- * range checks log, lib/range/trace-interval-event.ts).
+ * range checks log, lib/range-checks/trace-interval-event.ts).
  */
 export function bandEvents(intervals: readonly BandInterval[], clock: "playable" | "recorder", allLostAreLowerBounds = false): BandEvent[] {
   const out: Omit<BandEvent, "n">[] = [];

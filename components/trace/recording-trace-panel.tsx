@@ -1,12 +1,12 @@
 "use client";
 // The signal trace of one recording, embeddable under a player: fetches /api/recordings/:id/trace and
 // shows the band, the numbered link events and the summary, or why there is no trace. With the stored
-// figures (lib/media/recording-figures.ts) the rendition keeps the recorder's time, so band, player and
+// figures (lib/recordings/recording-figures.ts) the rendition keeps the recorder's time, so band, player and
 // list share one clock and the summary is the stored one; a recording processed before figures existed
 // keeps the older mapping onto the playable's clock.
 import { useQuery } from "@tanstack/react-query";
 import { fetchJson } from "@/components/fetch-json";
-import type { RecordingFigures } from "@/lib/media/recording-figures";
+import type { RecordingFigures } from "@/lib/recordings/recording-figures";
 import type { FrameRate } from "@/lib/timecode/frame-rate";
 import { formatFrameClockTime } from "@/lib/timecode/format-frame-clock-time";
 import { TraceBand } from "./trace-band";

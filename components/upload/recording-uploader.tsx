@@ -8,9 +8,9 @@ import Uppy, { type UppyFile } from "@uppy/core";
 import Tus from "@uppy/tus";
 import Dashboard from "@uppy/react/dashboard";
 import { useEffect, useRef, useState } from "react";
-import { CLIENT_METADATA_KEYS } from "@/lib/ingest/upload-metadata";
-import { UPLOAD_CHUNK_BYTES, UPLOAD_RETRY_DELAYS_MS, UPLOAD_ROUTE_PATH } from "@/lib/ingest/upload-limits";
-import type { UploadOutcome } from "@/lib/ingest/upload-outcome";
+import { CLIENT_METADATA_KEYS } from "@/lib/uploads/upload-metadata";
+import { UPLOAD_CHUNK_BYTES, UPLOAD_RETRY_DELAYS_MS, UPLOAD_ROUTE_PATH } from "@/lib/uploads/upload-limits";
+import type { UploadOutcome } from "@/lib/uploads/upload-outcome";
 import "./uppy-styles.css";
 
 type Meta = {

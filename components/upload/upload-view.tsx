@@ -11,7 +11,7 @@ import { FetchError, fetchJson } from "@/components/fetch-json";
 import { PageHeader } from "@/components/ui/page-header";
 import { EmptyState } from "@/components/ui/empty-state";
 import { RecordingsTable } from "@/components/recordings/recordings-table";
-import type { UploadFlight, UploadTarget } from "@/lib/ingest/list-upload-targets";
+import type { UploadFlight, UploadTarget } from "@/lib/uploads/list-upload-targets";
 import { UploadOutcomeList } from "./upload-outcome-list";
 import type { FileReport } from "./recording-uploader";
 

@@ -6,7 +6,7 @@ import { useRouter } from "next/navigation";
 import { Button } from "@/components/ui/button";
 import type { Role } from "@/db/schema/types";
 import type { JobStatus } from "@/lib/validation/work";
-import { formatAltitude, type AltitudeUnit } from "@/lib/work/format-altitude";
+import { formatAltitude, type AltitudeUnit } from "@/lib/filing/format-altitude";
 import { FlightForm, type FlightFormRow } from "./flight-form";
 import { JobStatusBadge } from "./job-status";
 import { Coordinates } from "./coordinates";

@@ -1,7 +1,7 @@
 // The sections that later parts of Cairn add to a flight's page after its facts: the flight's
 // recordings (and their flight timeline) and its range checks. Same contract as job-sections.tsx.
 import type { ComponentType } from "react";
-import type { FlightDetail } from "@/lib/work/flights";
+import type { FlightDetail } from "@/lib/filing/flights";
 import type { Member } from "@/lib/auth/load-member";
 import { FlightTimelineSection } from "@/components/flight-timeline/flight-timeline-section";
 import { FlightRecordingsSection } from "./evidence-sections";

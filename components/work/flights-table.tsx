@@ -3,7 +3,7 @@
 import Link from "next/link";
 import type { ColumnDef } from "@tanstack/react-table";
 import { ResourceTable } from "@/components/ui/resource-table";
-import { formatAltitude, altitudeCautionsToShow, type AltitudeUnit } from "@/lib/work/format-altitude";
+import { formatAltitude, altitudeCautionsToShow, type AltitudeUnit } from "@/lib/filing/format-altitude";
 import { Coordinates } from "./coordinates";
 
 export type FlightRow = {

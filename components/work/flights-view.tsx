@@ -5,7 +5,7 @@ import { useRouter } from "next/navigation";
 import { PageHeader } from "@/components/ui/page-header";
 import { Button } from "@/components/ui/button";
 import type { Role } from "@/db/schema/types";
-import type { AltitudeUnit } from "@/lib/work/format-altitude";
+import type { AltitudeUnit } from "@/lib/filing/format-altitude";
 import { FlightsTable } from "./flights-table";
 import { FlightForm } from "./flight-form";
 

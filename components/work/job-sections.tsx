@@ -2,7 +2,7 @@
 // flights: its recordings, findings, reports and share links. Each entry is a component (server or
 // client) given the job and the viewer; the page renders each under its own heading.
 import type { ComponentType } from "react";
-import type { JobDetail } from "@/lib/work/jobs";
+import type { JobDetail } from "@/lib/filing/jobs";
 import type { Member } from "@/lib/auth/load-member";
 import { JobShareLinksSection } from "@/components/sharing/job-share-links-section";
 import { JobCustodySection } from "@/components/custody/job-custody-section";

@@ -9,7 +9,7 @@ import { PageHeader } from "@/components/ui/page-header";
 import { Button } from "@/components/ui/button";
 import { SelectField } from "@/components/ui/field";
 import { JOB_STATUSES, JOB_STATUS_MEANING, type JobStatus } from "@/lib/validation/work";
-import { isOverdue } from "@/lib/work/format-work-dates";
+import { isOverdue } from "@/lib/filing/format-work-dates";
 import type { Role } from "@/db/schema/types";
 import { JobForm, type JobFormRow } from "./job-form";
 import { JobStatusBadge, JobStatusLegend } from "./job-status";

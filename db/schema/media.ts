@@ -3,7 +3,7 @@ import { pgTable, uuid, text, timestamp, doublePrecision, integer, bigint, jsonb
 import { organisations, users, timestamps } from "./organisations";
 import { jobs, flights } from "./work";
 import { recordingKindEnum, processingStateEnum, renditionKindEnum, stillStateEnum } from "./enums";
-import type { RecordingFigures } from "../../lib/media/recording-figures";
+import type { RecordingFigures } from "../../lib/recordings/recording-figures";
 
 const orgRef = () => uuid("organisation_id").notNull().references(() => organisations.id, { onDelete: "cascade" });
 
@@ -49,7 +49,7 @@ export const recordings = pgTable(
     facts: jsonb("facts").$type<ProbeFacts>(),
     // figures.durationSeconds, kept as a column for sorting; written together with figures
     durationSec: doublePrecision("duration_sec"),
-    // the one set of figures, computed once by the worker (lib/media/recording-figures.ts)
+    // the one set of figures, computed once by the worker (lib/recordings/recording-figures.ts)
     figures: jsonb("figures").$type<RecordingFigures>(),
     processedAt: timestamp("processed_at", { withTimezone: true }),
     deletedAt: timestamp("deleted_at", { withTimezone: true }),

@@ -18,11 +18,11 @@ import type { Db } from "@/db/client";
 import * as s from "@/db/schema";
 import { sha256OfStream } from "@/lib/custody/sha256-stream";
 import { recordCustodyEvent } from "@/lib/custody/record-custody-event";
-import { insertRecordingRow } from "@/lib/ingest/insert-recording-row";
+import { insertRecordingRow } from "@/lib/recordings/insert-recording-row";
 import { placeOriginal } from "@/lib/storage/local-store";
 import { originalKey } from "@/lib/storage/storage-keys";
 import { enqueue } from "@/lib/queue/jobs";
-import { runFfmpeg } from "@/lib/media/ffmpeg";
+import { runFfmpeg } from "@/lib/processing/ffmpeg";
 import { damageDemoStream, frames, type DemoDamage } from "./damage-demo-stream";
 
 export type DemoFile = {

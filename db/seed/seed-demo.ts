@@ -4,7 +4,7 @@ import type { Db } from "@/db/client";
 import * as s from "@/db/schema";
 import { hashPassword } from "@/lib/auth/password";
 import { DEFAULT_CATEGORIES } from "@/lib/findings/default-categories";
-import { demoRangeChecks } from "@/lib/range/demo-range-checks";
+import { demoRangeChecks } from "@/lib/range-checks/demo-range-checks";
 import { DEMO_CLIENT_ACCOUNT_CLIENTS, DEMO_CLIENTS, DEMO_FLIGHTS, DEMO_JOBS, DEMO_ORG, DEMO_PASSWORD, DEMO_SITES, DEMO_USERS, OTHER_ORG, OTHER_USER } from "./demo-scenario";
 
 const day = 24 * 3600 * 1000;

@@ -1,7 +1,7 @@
 // Position columns of a finding: the point itself and, when the flight logged a launch point, how far
-// it lies from there (lib/range/finding-distances.ts). Without a launch point the distances stay empty
+// it lies from there (lib/range-checks/finding-distances.ts). Without a launch point the distances stay empty
 // rather than being measured from a guessed origin.
-import { findingDistances } from "@/lib/range/finding-distances";
+import { findingDistances } from "@/lib/range-checks/finding-distances";
 
 export type PositionInput = { latitude: number | null; longitude: number | null; heightAglM: number | null };
 export type PositionColumns = PositionInput & { groundDistanceM: number | null; slantDistanceM: number | null };

@@ -6,7 +6,7 @@ import { ApiError } from "@/lib/api/errors";
 import { recordCustodyEvent } from "@/lib/custody/record-custody-event";
 import type { Role } from "@/db/schema/types";
 import type { CreateFindingInput } from "./finding-input";
-import { loadReviewRecording, requireTiming } from "./load-review-recording";
+import { loadReviewRecording, requireTiming } from "../recordings/load-review-recording";
 import { resolveFindingSpan, FindingSpanError } from "./resolve-finding-span";
 import { computeFindingPosition } from "./compute-finding-position";
 import { checkCategory } from "./check-category";

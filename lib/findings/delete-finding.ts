@@ -7,7 +7,7 @@ import { notFound } from "@/lib/api/errors";
 import { recordCustodyEvent } from "@/lib/custody/record-custody-event";
 import { findingSnapshot } from "./finding-snapshot";
 import { latestStills } from "./finding-view";
-import { loadReviewRecording } from "./load-review-recording";
+import { loadReviewRecording } from "../recordings/load-review-recording";
 import type { FindingActor } from "./create-finding";
 
 export async function deleteFinding(organisationId: string, id: string, actor: FindingActor, reason: string | null): Promise<{ id: string; version: number; deletedAt: Date }> {

@@ -1,4 +1,4 @@
-// Extracts one decoded frame, exactly frame N, as a full-resolution JPEG (through lib/media/ffmpeg.ts).
+// Extracts one decoded frame, exactly frame N, as a full-resolution JPEG (through lib/processing/ffmpeg.ts).
 //
 // Why a timestamp seek and not `select=eq(n\,N)` from the start: counting decoded frames from the
 // start is exact but decodes everything before N (minutes for a late frame of a long 4K file). An
@@ -8,7 +8,7 @@
 // checked against N's start; a mismatch fails the job instead of storing the wrong picture.
 import { readFile } from "node:fs/promises";
 import path from "node:path";
-import { runFfmpeg, runFfprobe } from "@/lib/media/ffmpeg";
+import { runFfmpeg, runFfprobe } from "@/lib/processing/ffmpeg";
 import type { FrameRate } from "@/lib/timecode/frame-rate";
 
 export type ExtractedFrame = { width: number; height: number; ptsTime: number; tool: "ffmpeg"; args: string[] };

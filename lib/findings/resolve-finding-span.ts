@@ -4,7 +4,7 @@
 // a finding silently moved to another frame would describe a picture nobody marked.
 import { frameAtTime } from "@/lib/timecode/frame-at-time";
 import { timeOfFrame } from "@/lib/timecode/time-of-frame";
-import type { RecordingTiming } from "./recording-frame-rate";
+import type { RecordingTiming } from "../recordings/recording-frame-rate";
 
 export class FindingSpanError extends Error {
   constructor(readonly fields: Record<string, string[]>) {

@@ -7,7 +7,7 @@ import { findingRevisions, findings } from "@/db/schema";
 import { ApiError, notFound } from "@/lib/api/errors";
 import { recordCustodyEvent } from "@/lib/custody/record-custody-event";
 import type { UpdateFindingInput } from "./finding-input";
-import { loadReviewRecording, requireTiming } from "./load-review-recording";
+import { loadReviewRecording, requireTiming } from "../recordings/load-review-recording";
 import { resolveFindingSpan } from "./resolve-finding-span";
 import { computeFindingPosition } from "./compute-finding-position";
 import { checkCategory } from "./check-category";

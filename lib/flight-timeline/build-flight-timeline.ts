@@ -10,7 +10,7 @@
 // A gap longer than the tolerance is an outage: the recorder stopped (typically the link was lost and
 // the controller closed the file) and started a new file. The flight's summary counts it as loss,
 // with its length marked as estimated. The files' own figures are the stored ones
-// (lib/media/recording-figures.ts), never recomputed here.
+// (lib/recordings/recording-figures.ts), never recomputed here.
 import { flightOrder, type FlightFile } from "./order-flight-files";
 
 export interface TimelineFileInput extends FlightFile {

@@ -4,7 +4,7 @@ import { and, eq, isNull } from "drizzle-orm";
 import { db } from "@/db/client";
 import { flights, recordings, signalTraces } from "@/db/schema";
 import { ApiError } from "@/lib/api/errors";
-import { readRecordingFigures } from "@/lib/media/recording-figures";
+import { readRecordingFigures } from "@/lib/recordings/recording-figures";
 import { buildFlightTimeline, type FlightTimeline } from "./build-flight-timeline";
 
 export const FLIGHT_NOT_FOUND = "Flight not found";

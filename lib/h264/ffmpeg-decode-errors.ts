@@ -21,7 +21,7 @@
 // Frames the decoder inferred for a frame_num gap get a coded_picture_number but are never output:
 // holes in the coded_picture_number sequence are ffmpeg's view of lost frames.
 //
-// This module builds the arguments and reads the lines; lib/media/ffmpeg.ts (readH264DecoderErrors) runs
+// This module builds the arguments and reads the lines; lib/processing/ffmpeg.ts (readH264DecoderErrors) runs
 // ffprobe, like every other ffmpeg and ffprobe call.
 
 import { findFrameAtOffset, presentFrameSlots, type SignalTrace } from "./signal-trace";

@@ -1,7 +1,7 @@
-// One line on a recording's signal for the report, from its stored figures (lib/media/recording-figures.ts):
+// One line on a recording's signal for the report, from its stored figures (lib/recordings/recording-figures.ts):
 // frame slots, lost ("at least N" when the count is a lower bound), breaking up, intact share, first
 // degradation and longest loss, with the same frame times the review room shows.
-import { describeLostFrames, type RecordingFigures } from "@/lib/media/recording-figures";
+import { describeLostFrames, type RecordingFigures } from "@/lib/recordings/recording-figures";
 import { formatFrameClockTime } from "@/lib/timecode/format-frame-clock-time";
 import { formatClockTime } from "@/lib/timecode/format-clock-time";
 import { reduceFrameRate } from "@/lib/timecode/frame-rate";

@@ -3,7 +3,7 @@ import { and, desc, eq, type SQL } from "drizzle-orm";
 import { alias } from "drizzle-orm/pg-core";
 import { db, type DbOrTx } from "@/db/client";
 import { reports, users } from "@/db/schema";
-import { reportDownloadUrl } from "@/lib/media-access/media-urls";
+import { reportDownloadUrl } from "@/lib/media-serving/media-urls";
 
 const builder = alias(users, "builder");
 const approver = alias(users, "approver");

@@ -8,7 +8,7 @@ import { ApiError, notFound } from "@/lib/api/errors";
 import type { Member } from "@/lib/auth/load-member";
 import { hashPassword } from "@/lib/auth/password";
 import { recordCustodyEvent } from "@/lib/custody/record-custody-event";
-import { mailShareLink } from "@/lib/notify/mail-share-link";
+import { mailShareLink } from "@/lib/mail/mail-share-link";
 import { generateShareToken, hashShareToken } from "./share-token";
 import { shareLinkUrl } from "./share-link-url";
 import type { ShareLinkInput } from "./share-link-input";

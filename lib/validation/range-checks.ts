@@ -3,8 +3,8 @@
 // exact factors of lib/geo; coordinates arrive as text in decimal degrees or DMS and leave as numbers.
 import { z } from "zod";
 import { GeoInputError, fromMetres, parseAngle, toMetres, type Axis } from "@/lib/geo";
-import { LINK_EVENTS, type LinkEvent } from "@/lib/range/link-events";
-import type { PositionInput } from "@/lib/range/compute-range-check";
+import { LINK_EVENTS, type LinkEvent } from "@/lib/range-checks/link-events";
+import type { PositionInput } from "@/lib/range-checks/compute-range-check";
 import { optionalText, optionalUuid, textRule, uuid } from "./common";
 
 export const LENGTH_UNITS = ["ft", "m"] as const;

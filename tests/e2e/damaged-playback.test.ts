@@ -20,7 +20,7 @@ import { makeFlight, makeJob } from "@/tests/support/factories";
 import { makeCounterH264, makeProcessedRecording, type ProcessedRecording } from "@/tests/support/media/make-processed-recording";
 import { makeDamagedH264 } from "@/tests/support/media/make-damaged-h264";
 import { describeMoment } from "@/lib/findings/describe-moment";
-import { describeLostFrames, readRecordingFigures } from "@/lib/media/recording-figures";
+import { describeLostFrames, readRecordingFigures } from "@/lib/recordings/recording-figures";
 import { storePath } from "@/lib/storage/local-store";
 import { MIN_MARK_WIDTH_PX } from "@/components/trace/layout-trace-band";
 import { readFile } from "node:fs/promises";

@@ -10,7 +10,7 @@ import { launch, newContext, signInWithPassword } from "@/tests/support/browser"
 import { db, closeDb } from "@/db/client";
 import { flights, rangeChecks, users } from "@/db/schema";
 import { feetToMetres, metresToFeet, slantRange } from "@/lib/geo";
-import { RANGE_CHECK_CSV_HEADER } from "@/lib/range/build-range-checks-csv";
+import { RANGE_CHECK_CSV_HEADER } from "@/lib/range-checks/build-range-checks-csv";
 import { demoOrganisationId } from "@/tests/support/session";
 import { insertTracedRecording } from "@/tests/integration/range/range-fixtures";
 

@@ -172,7 +172,7 @@ describe("sharing a finding's clip with a client", () => {
   it("the client's viewing is counted for the share link in the recording's playback analytics", async () => {
     // The watch time arrives in a later beacon than the view's first one, and that beacon carries no
     // media grant (mux-embed sends custom_1 in a view's first event only): the collector adds it to
-    // the view the first beacon proved (lib/playback/share-viewer.ts knownShareViewer); before, it was
+    // the view the first beacon proved (lib/playback-analytics/share-viewer.ts knownShareViewer); before, it was
     // refused and the row kept 0. The page stays open until then: mux-embed sends its queue every 10 s
     // and once more on pagehide, but skips that last send while an earlier POST is still in flight.
     const [link] = await db().select({ id: s.shareLinks.id }).from(s.shareLinks).where(eq(s.shareLinks.tokenHash, hashShareToken(shareUrl.split("/").pop()!)));

@@ -9,7 +9,7 @@ import { and, eq, inArray } from "drizzle-orm";
 import { db } from "@/db/client";
 import { reports } from "@/db/schema";
 import { commitBuiltReport } from "@/lib/reports/commit-built-report";
-import { placeStoredFile } from "@/lib/media-access/place-stored-file";
+import { placeStoredFile } from "@/lib/media-serving/place-stored-file";
 import { reportKey } from "@/lib/storage/storage-keys";
 import { loadReportData } from "@/lib/reports/load-report-data";
 import { renderReportPdf } from "@/lib/reports/render-report-pdf";

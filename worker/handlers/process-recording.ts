@@ -1,5 +1,5 @@
 // Job "process-recording": derive the playable MP4, poster, thumbnail sprite + WebVTT track, facts and
-// signal trace of one recording, and commit them in one transaction (lib/media/commit-recording-outputs.ts). Idempotent: outputs are built in
+// signal trace of one recording, and commit them in one transaction (lib/processing/commit-recording-outputs.ts). Idempotent: outputs are built in
 // a temp folder, moved into the recording's derived folder as a whole, and the rows are upserted per
 // (recording, kind), so a second run leaves one identical set. The original is only read.
 import { readdir, rm, mkdir, stat } from "node:fs/promises";
@@ -10,11 +10,11 @@ import { db } from "@/db/client";
 import { organisations, recordings } from "@/db/schema";
 import type { JobPayloads } from "@/lib/queue/jobs";
 import { storePath } from "@/lib/storage/local-store";
-import { commitRecordingOutputs } from "@/lib/media/commit-recording-outputs";
-import { deriveRecordingOutputs } from "@/lib/media/derive-recording-outputs";
-import { RecordingRefused } from "@/lib/media/recording-refused";
+import { commitRecordingOutputs } from "@/lib/processing/commit-recording-outputs";
+import { deriveRecordingOutputs } from "@/lib/processing/derive-recording-outputs";
+import { RecordingRefused } from "@/lib/recordings/recording-refused";
 import { markRecordingFailed } from "../mark-recording-failed";
-import { notifyProcessingFinished } from "@/lib/notify";
+import { notifyProcessingFinished } from "@/lib/mail/notifications";
 import { recordingProgressReporter } from "../report-progress";
 import type { JobContext } from "./job-context";
 

@@ -1,8 +1,8 @@
 // Job "purge-uploads" (repeatable, scheduled by the worker): the clean-up of the upload path. The
-// purge itself belongs to ingest (lib/ingest/purge-abandoned-uploads.ts); this handler runs it.
+// purge itself belongs to ingest (lib/uploads/purge-abandoned-uploads.ts); this handler runs it.
 import type { JobPayloads } from "@/lib/queue/jobs";
 import type { JobContext } from "./job-context";
-import { purgeAbandonedUploads } from "@/lib/ingest/purge-abandoned-uploads";
+import { purgeAbandonedUploads } from "@/lib/uploads/purge-abandoned-uploads";
 
 export async function purgeUploads(_data: JobPayloads["purge-uploads"], ctx: JobContext = {}): Promise<void> {
   if (ctx.signal?.aborted) return;

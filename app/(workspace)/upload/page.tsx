@@ -1,7 +1,7 @@
 import { pageMember } from "@/lib/auth/page-member";
 import { can } from "@/lib/auth/permissions";
 import { env } from "@/lib/config/env";
-import { listUploadTargets } from "@/lib/ingest/list-upload-targets";
+import { listUploadTargets } from "@/lib/uploads/list-upload-targets";
 import { UploadView } from "@/components/upload/upload-view";
 
 export const metadata = { title: "Upload recordings" };

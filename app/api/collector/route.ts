@@ -1,6 +1,6 @@
 // POST /api/collector: the app's own playback-analytics collector. mux-embed posts its beacons here
 // (text/plain JSON { metadata, events }); views are stored per viewer: the signed-in member, or for
-// a shared page the share link its media grant names (lib/playback/share-viewer.ts). OPTIONS: CORS.
+// a shared page the share link its media grant names (lib/playback-analytics/share-viewer.ts). OPTIONS: CORS.
 // Cross-site guard (lib/api/refuse-cross-site.ts): the origin check applies, the JSON-only body rule
 // does not: mux-embed posts text/plain by design (a "simple" request, no CORS preflight). It writes
 // analytics rows only: a member's own views (session cookie) or a share link's views, each of which
@@ -13,9 +13,9 @@ import { inScope, isClientScoped } from "@/lib/auth/client-scope";
 
 const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 import { env } from "@/lib/config/env";
-import { readBeacons, BeaconError } from "@/lib/playback/read-beacons";
-import { recordPlaybackViews } from "@/lib/playback/record-playback-views";
-import { knownShareViewer, shareViewerOf } from "@/lib/playback/share-viewer";
+import { readBeacons, BeaconError } from "@/lib/playback-analytics/read-beacons";
+import { recordPlaybackViews } from "@/lib/playback-analytics/record-playback-views";
+import { knownShareViewer, shareViewerOf } from "@/lib/playback-analytics/share-viewer";
 
 const MAX_BODY_BYTES = 600 * 1024; // mux-embed caps a beacon at 500 KB (maxPayloadKBSize)
 

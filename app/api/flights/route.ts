@@ -4,7 +4,7 @@ import { clientScopeCondition } from "@/lib/auth/client-scope";
 import { withOrg, readJson, parseQuery, created, ok } from "@/lib/api/with-org";
 import { flightInput } from "@/lib/validation/work";
 import { flightListQuery } from "@/lib/validation/list-filters";
-import { createFlight, listFlights } from "@/lib/work/flights";
+import { createFlight, listFlights } from "@/lib/filing/flights";
 
 export const GET = withOrg({ permission: "workspace.read" }, async ({ req, member }) =>
   ok(await listFlights(member.organisationId, parseQuery(req, flightListQuery), clientScopeCondition(member, sites.clientId))),

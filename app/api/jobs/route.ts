@@ -5,7 +5,7 @@ import { clientScopeCondition } from "@/lib/auth/client-scope";
 import { withOrg, readJson, parseQuery, created, ok } from "@/lib/api/with-org";
 import { jobInput } from "@/lib/validation/work";
 import { jobListQuery } from "@/lib/validation/list-filters";
-import { createJob, listJobs } from "@/lib/work/jobs";
+import { createJob, listJobs } from "@/lib/filing/jobs";
 
 export const GET = withOrg({ permission: "workspace.read" }, async ({ req, member }) =>
   ok(await listJobs(member.organisationId, parseQuery(req, jobListQuery), clientScopeCondition(member, sites.clientId))),

@@ -2,7 +2,7 @@
 import { withOrg, parseQuery, ok } from "@/lib/api/with-org";
 import { can } from "@/lib/auth/permissions";
 import { memberListQuery } from "@/lib/validation/list-filters";
-import { listMembers } from "@/lib/work/members";
+import { listMembers } from "@/lib/members/members";
 import { isClientScoped } from "@/lib/auth/client-scope";
 import type { Role } from "@/db/schema/types";
 

@@ -2,7 +2,7 @@
 import { recordings } from "@/db/schema";
 import { jobScopeCondition } from "@/lib/auth/client-scope";
 import { withOrg, parseQuery, ok } from "@/lib/api/with-org";
-import { listRecordings, recordingListQuery } from "@/lib/ingest/list-recordings";
+import { listRecordings, recordingListQuery } from "@/lib/recordings/list-recordings";
 
 export const GET = withOrg({ permission: "recordings.read" }, async ({ req, member }) =>
   ok(await listRecordings(member.organisationId, parseQuery(req, recordingListQuery), jobScopeCondition(member, recordings.jobId))),

@@ -4,7 +4,7 @@ import { clientScopeCondition } from "@/lib/auth/client-scope";
 import { withOrg, readJson, parseQuery, created, ok } from "@/lib/api/with-org";
 import { siteInput } from "@/lib/validation/work";
 import { siteListQuery } from "@/lib/validation/list-filters";
-import { createSite, listSites } from "@/lib/work/sites";
+import { createSite, listSites } from "@/lib/filing/sites";
 
 export const GET = withOrg({ permission: "workspace.read" }, async ({ req, member }) =>
   ok(await listSites(member.organisationId, parseQuery(req, siteListQuery), clientScopeCondition(member, sites.clientId))),

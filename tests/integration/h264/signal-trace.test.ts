@@ -3,7 +3,7 @@ import os from "node:os";
 import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { locateDecoderEvents } from "@/lib/h264/ffmpeg-decode-errors";
-import { readH264DecoderErrors } from "@/lib/media/ffmpeg";
+import { readH264DecoderErrors } from "@/lib/processing/ffmpeg";
 import { probeH264File } from "@/lib/h264/probe-stream";
 import {
   FrameFlag,

@@ -4,8 +4,8 @@
 import { readFile, writeFile } from "node:fs/promises";
 import path from "node:path";
 import { beforeAll, describe, expect, it } from "vitest";
-import { sniffContent } from "@/lib/ingest/sniff-content";
-import { SNIFF_BYTES } from "@/lib/ingest/upload-limits";
+import { sniffContent } from "@/lib/uploads/sniff-content";
+import { SNIFF_BYTES } from "@/lib/uploads/upload-limits";
 import { MEDIA_CACHE_DIR, makeJpeg, makeMov, makeMp4, makePng, makeRawH264, makeRawHevc, runTool } from "@/tests/support/media/make-upload-fixtures";
 
 type Probe = { formatName: string; majorBrand?: string; codec?: string };

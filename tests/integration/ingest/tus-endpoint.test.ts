@@ -11,7 +11,7 @@ import { closeRedis } from "@/lib/queue/redis";
 import { closeQueues, queue } from "@/lib/queue/jobs";
 import { storePath } from "@/lib/storage/local-store";
 import { originalKey } from "@/lib/storage/storage-keys";
-import { recordingIdForUpload } from "@/lib/ingest/recording-id-for-upload";
+import { recordingIdForUpload } from "@/lib/uploads/recording-id-for-upload";
 import { demoActors, type Actor, type DemoActorKey } from "@/tests/support/session";
 import { makeFlight } from "@/tests/support/factories";
 import { startUploadServer } from "@/tests/support/upload-server";

@@ -1,4 +1,4 @@
-// Bad raw H.264 input through lib/media/derive-recording-outputs.ts: each file ends either with a
+// Bad raw H.264 input through lib/processing/derive-recording-outputs.ts: each file ends either with a
 // rendition that ffmpeg decodes from start to end without one error (ffmpeg -v error -f null, the
 // outside reference) and an honest trace, or refused with a readable reason. Never a rendition that
 // would stop a browser's decoder.
@@ -6,8 +6,8 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { mkdir, mkdtemp, readFile, rm, writeFile } from "node:fs/promises";
 import os from "node:os";
 import path from "node:path";
-import { deriveRecordingOutputs, PLAYABLE_FILE, type DeriveResult } from "@/lib/media/derive-recording-outputs";
-import { RecordingRefused } from "@/lib/media/recording-refused";
+import { deriveRecordingOutputs, PLAYABLE_FILE, type DeriveResult } from "@/lib/processing/derive-recording-outputs";
+import { RecordingRefused } from "@/lib/recordings/recording-refused";
 import { makeCounterStream, runTool } from "@/tests/support/media/make-h264";
 import { accessUnitRanges, damageH264, range } from "@/tests/support/media/cut-h264";
 

@@ -13,8 +13,8 @@ import { custodyEvents, recordings, renditions, signalTraces } from "@/db/schema
 import { closeRedis } from "@/lib/queue/redis";
 import { storePath } from "@/lib/storage/local-store";
 import { derivedFolderKey } from "@/lib/storage/storage-keys";
-import { commitRecordingOutputs } from "@/lib/media/commit-recording-outputs";
-import { deriveRecordingOutputs, type DeriveResult } from "@/lib/media/derive-recording-outputs";
+import { commitRecordingOutputs } from "@/lib/processing/commit-recording-outputs";
+import { deriveRecordingOutputs, type DeriveResult } from "@/lib/processing/derive-recording-outputs";
 import { makeRawH264 } from "@/tests/support/media/make-h264";
 import { demoOrganisationId } from "@/tests/support/session";
 import { makeRecording } from "./support/make-recording";

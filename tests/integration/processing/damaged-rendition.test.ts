@@ -1,4 +1,4 @@
-// Damaged controller streams through lib/media/derive-recording-outputs.ts (no queue, no database):
+// Damaged controller streams through lib/processing/derive-recording-outputs.ts (no queue, no database):
 // frames cut out mid-group, at the end of a group before its IDR and over a whole group, slices
 // scrambled in IDR and P pictures. Checked against outside references:
 // - the clean source's frame count by ffprobe -count_frames (ffmpeg's own H.264 parser and decoder);
@@ -11,8 +11,8 @@ import { mkdir, mkdtemp, readFile, rm } from "node:fs/promises";
 import { createHash } from "node:crypto";
 import os from "node:os";
 import path from "node:path";
-import { deriveRecordingOutputs, PLAYABLE_FILE, type DeriveResult } from "@/lib/media/derive-recording-outputs";
-import { describeLostFrames } from "@/lib/media/recording-figures";
+import { deriveRecordingOutputs, PLAYABLE_FILE, type DeriveResult } from "@/lib/processing/derive-recording-outputs";
+import { describeLostFrames } from "@/lib/recordings/recording-figures";
 import { makeCounterStream, runTool } from "@/tests/support/media/make-h264";
 import { damageH264, range, type StreamDamage } from "@/tests/support/media/cut-h264";
 import { ffprobeFrameCount } from "./support/probe-tools";

@@ -7,8 +7,8 @@ import { mkdir, mkdtemp, rm } from "node:fs/promises";
 import os from "node:os";
 import path from "node:path";
 import { DEMO_FILES, generateDemoStream, TOWER_FADE } from "@/db/seed/seed-demo-recordings";
-import { deriveRecordingOutputs, PLAYABLE_FILE } from "@/lib/media/derive-recording-outputs";
-import { describeLostFrames } from "@/lib/media/recording-figures";
+import { deriveRecordingOutputs, PLAYABLE_FILE } from "@/lib/processing/derive-recording-outputs";
+import { describeLostFrames } from "@/lib/recordings/recording-figures";
 import { ffprobeFrameCount } from "./support/probe-tools";
 
 let dir: string;

@@ -1,4 +1,4 @@
-// lib/media/derive-recording-outputs.ts without the queue: the raw H.264 path reads a head of the
+// lib/processing/derive-recording-outputs.ts without the queue: the raw H.264 path reads a head of the
 // stream to plan the playable, then scans the whole file alongside ffmpeg. Whatever the head covers
 // (all of the file, a part holding the first IDR, or too little to decide), the outputs are the same
 // bytes (SHA-256 by Node's crypto) and the same facts.
@@ -6,7 +6,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { mkdir, mkdtemp, readFile, rm, writeFile } from "node:fs/promises";
 import os from "node:os";
 import path from "node:path";
-import { deriveRecordingOutputs, type DeriveResult } from "@/lib/media/derive-recording-outputs";
+import { deriveRecordingOutputs, type DeriveResult } from "@/lib/processing/derive-recording-outputs";
 import { probeH264File } from "@/lib/h264/probe-stream";
 import { makeRawH264 } from "@/tests/support/media/make-h264";
 

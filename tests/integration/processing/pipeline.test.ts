@@ -32,7 +32,7 @@ import { waitForRecordings, waitJobs } from "@/tests/support/wait-jobs";
 import { makeRecording } from "./support/make-recording";
 import { readMp4 } from "./support/read-mp4";
 import { ffprobeFrameCount, ffprobeSize } from "./support/probe-tools";
-import { readRecordingTrace } from "@/lib/media/read-recording-trace";
+import { readRecordingTrace } from "@/lib/recordings/read-recording-trace";
 
 let worker: RunningWorker;
 let orgId: string;

@@ -10,7 +10,7 @@ import * as chart from "@/app/api/range-checks/chart/route";
 import { db, closeDb } from "@/db/client";
 import { rangeChecks } from "@/db/schema";
 import { feetToMetres, metresToFeet, slantRange } from "@/lib/geo";
-import { RANGE_CHECK_CSV_HEADER } from "@/lib/range/build-range-checks-csv";
+import { RANGE_CHECK_CSV_HEADER } from "@/lib/range-checks/build-range-checks-csv";
 import { demoActors, demoOrganisationId, req, route, type Actor, type DemoActorKey } from "@/tests/support/session";
 import { makeFlight } from "@/tests/support/factories";
 import { closeRedis } from "@/lib/queue/redis";

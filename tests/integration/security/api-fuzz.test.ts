@@ -9,7 +9,7 @@ import { closeDb } from "@/db/client";
 import { env } from "@/lib/config/env";
 import { closeRedis } from "@/lib/queue/redis";
 import { closeQueues } from "@/lib/queue/jobs";
-import { handleUploadRequest } from "@/lib/ingest/handle-upload-request";
+import { handleUploadRequest } from "@/lib/uploads/handle-upload-request";
 import { demoActors, req, route, sessionCookie, type Actor, type DemoActorKey } from "@/tests/support/session";
 import { changedTables, dbFingerprint } from "@/tests/support/db-fingerprint";
 import { discoverRoutes, makeMatrixFixture, MATRIX } from "./authorization-matrix-rows";

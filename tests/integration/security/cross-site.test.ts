@@ -14,7 +14,7 @@ import { db, closeDb } from "@/db/client";
 import * as s from "@/db/schema";
 import { env } from "@/lib/config/env";
 import { closeRedis } from "@/lib/queue/redis";
-import { handleUploadRequest } from "@/lib/ingest/handle-upload-request";
+import { handleUploadRequest } from "@/lib/uploads/handle-upload-request";
 import { demoActors, req, route, sessionCookie, type Actor, type DemoActorKey } from "@/tests/support/session";
 import { makeFlight } from "@/tests/support/factories";
 

@@ -5,14 +5,14 @@ import { randomUUID } from "node:crypto";
 import { eq } from "drizzle-orm";
 import { db, closeDb } from "@/db/client";
 import * as s from "@/db/schema";
-import { notifyProcessingFinished, notifyReportApproved } from "@/lib/notify";
+import { notifyProcessingFinished, notifyReportApproved } from "@/lib/mail/notifications";
 import { readMailbox, type StoredMail } from "@/lib/mail/read-mailbox";
 import { demoOrganisationId } from "@/tests/support/session";
 import { makeFlight } from "@/tests/support/factories";
 import { closeRedis } from "@/lib/queue/redis";
 import { env } from "@/lib/config/env";
 import { makeReport, makeStoredRecording } from "./share-fixtures";
-import { computeRecordingFigures } from "@/lib/media/recording-figures";
+import { computeRecordingFigures } from "@/lib/recordings/recording-figures";
 
 let orgId: string;
 let crew: { pilot: string; reviewer: string; client: string; uploader: string; outsider: string };

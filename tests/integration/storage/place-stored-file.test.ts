@@ -5,7 +5,7 @@ import { mkdtemp, readFile, readdir, writeFile } from "node:fs/promises";
 import os from "node:os";
 import path from "node:path";
 import { randomUUID } from "node:crypto";
-import { placeStoredFile } from "@/lib/media-access/place-stored-file";
+import { placeStoredFile } from "@/lib/media-serving/place-stored-file";
 import { storePath } from "@/lib/storage/local-store";
 
 afterEach(() => vi.restoreAllMocks());

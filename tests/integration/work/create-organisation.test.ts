@@ -10,7 +10,7 @@ import { db, closeDb } from "@/db/client";
 import { memberships, organisations, users } from "@/db/schema";
 import { closeRedis } from "@/lib/queue/redis";
 import { ApiError } from "@/lib/api/errors";
-import { createOrganisation } from "@/lib/work/create-organisation";
+import { createOrganisation } from "@/lib/members/create-organisation";
 import { req } from "@/tests/support/session";
 
 afterAll(async () => {

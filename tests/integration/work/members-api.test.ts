@@ -10,7 +10,7 @@ import { flights, jobs, memberships, users } from "@/db/schema";
 import { demoActors, demoOrganisationId, membershipRole, req, route, type Actor, type DemoActorKey } from "@/tests/support/session";
 import { makeFlight, makeJob } from "@/tests/support/factories";
 import { closeRedis } from "@/lib/queue/redis";
-import { createOrganisation } from "@/lib/work/create-organisation";
+import { createOrganisation } from "@/lib/members/create-organisation";
 import { makeMember } from "./make-member";
 
 let actors: Record<DemoActorKey, Actor>;

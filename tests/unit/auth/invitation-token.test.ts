@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { createHash } from "node:crypto";
-import { INVITATION_LIFETIME_MS, INVITATION_TOKEN_BYTES, hashInvitationToken, newInvitationToken } from "@/lib/work/invitation-token";
+import { INVITATION_LIFETIME_MS, INVITATION_TOKEN_BYTES, hashInvitationToken, newInvitationToken } from "@/lib/members/invitation-token";
 import { INVITATION_TOKEN_PATTERN, invitationToken } from "@/lib/validation/members";
 
 describe("invitation tokens", () => {

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { frameRateFromFps, recordingTiming } from "@/lib/findings/recording-frame-rate";
+import { frameRateFromFps, recordingTiming } from "@/lib/recordings/recording-frame-rate";
 
 describe("frameRateFromFps", () => {
   // SMPTE ST 12-1: 29.97 and 59.94 are 30000/1001 and 60000/1001 exactly (docs/outside-checks.md, Time)
@@ -37,7 +37,7 @@ describe("recordingTiming", () => {
 
 describe("recordingTiming from the stored figures", () => {
   it("counts recorder frame slots (lost included) at the figures' exact rate, and carries the lost count", async () => {
-    const { computeRecordingFigures } = await import("@/lib/media/recording-figures");
+    const { computeRecordingFigures } = await import("@/lib/recordings/recording-figures");
     // 360 slots at 30000/1001, 45 of them lost (a lower bound): the figures decide over facts
     const states = new Uint8Array(360);
     states.fill(2, 100, 145);

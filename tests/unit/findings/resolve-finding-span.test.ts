@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { resolveFindingSpan, FindingSpanError, type SpanInput } from "@/lib/findings/resolve-finding-span";
-import type { RecordingTiming } from "@/lib/findings/recording-frame-rate";
+import type { RecordingTiming } from "@/lib/recordings/recording-frame-rate";
 
 // 2 s at 30000/1001: 60 frames, 0..59
 const ntsc: RecordingTiming = { rate: { num: 30000, den: 1001 }, fps: 30000 / 1001, frameCount: 60, durationSec: 60 * 1001 / 30000 };

@@ -5,7 +5,7 @@
 import { existsSync, readFileSync } from "node:fs";
 import path from "node:path";
 import { describe, expect, it } from "vitest";
-import { UPLOAD_CHUNK_BYTES } from "@/lib/ingest/upload-limits";
+import { UPLOAD_CHUNK_BYTES } from "@/lib/uploads/upload-limits";
 
 const root = path.resolve(__dirname, "../../..");
 const candidates = ["proxy.ts", "middleware.ts", "src/proxy.ts", "src/middleware.ts"].map((f) => path.join(root, f));

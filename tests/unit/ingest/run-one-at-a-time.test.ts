@@ -1,7 +1,7 @@
 // OneAtATime: work for one key never overlaps and runs in the order asked; other keys run alongside;
 // a failure is handed to its caller and does not stop the work queued behind it.
 import { describe, expect, it } from "vitest";
-import { OneAtATime } from "@/lib/ingest/run-one-at-a-time";
+import { OneAtATime } from "@/lib/uploads/run-one-at-a-time";
 
 const later = (ms: number) => new Promise((r) => setTimeout(r, ms));
 

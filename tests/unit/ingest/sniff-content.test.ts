@@ -2,7 +2,7 @@
 // and Table 7-1, ISO/IEC 14496-12 FileTypeBox, the PNG/ZIP/MPEG signatures). Files made by ffmpeg
 // and identified by ffprobe are checked in tests/integration/ingest/sniff-content-media.test.ts.
 import { describe, expect, it } from "vitest";
-import { refusalMessage, sniffContent } from "@/lib/ingest/sniff-content";
+import { refusalMessage, sniffContent } from "@/lib/uploads/sniff-content";
 
 describe("byte layouts", () => {
   const enc = (s: string) => new TextEncoder().encode(s);

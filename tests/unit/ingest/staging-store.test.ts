@@ -8,7 +8,7 @@ import path from "node:path";
 import { Readable } from "node:stream";
 import { afterAll, afterEach, beforeAll, describe, expect, it, vi } from "vitest";
 import { ERRORS, Upload } from "@tus/server";
-import { StagingStore } from "@/lib/ingest/staging-store";
+import { StagingStore } from "@/lib/uploads/staging-store";
 import { sha256sum } from "@/tests/support/media/make-upload-fixtures";
 
 let dir: string;

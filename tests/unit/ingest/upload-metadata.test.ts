@@ -1,8 +1,8 @@
 // Upload-Metadata as the uploader sends it: table of good and bad values, and what the server keeps.
 import { describe, expect, it } from "vitest";
-import { parseClientMetadata, toTusMetadata, fromTusMetadata } from "@/lib/ingest/upload-metadata";
-import { fileNameProblem, normaliseRelativePath } from "@/lib/ingest/check-file-name";
-import { recordingIdForUpload } from "@/lib/ingest/recording-id-for-upload";
+import { parseClientMetadata, toTusMetadata, fromTusMetadata } from "@/lib/uploads/upload-metadata";
+import { fileNameProblem, normaliseRelativePath } from "@/lib/uploads/check-file-name";
+import { recordingIdForUpload } from "@/lib/uploads/recording-id-for-upload";
 
 const base = { jobId: "5b0f3c1e-7d7a-4c59-9a43-2f4f3f0f9a10", flightId: "8c2f6a8e-1c5b-4f0e-8a7d-3e0d6f1b2c33", filename: "clip.264" };
 

@@ -2,7 +2,7 @@
 // organisation's default. The NTSC-family rate 29.97 is 30000/1001 exactly (SMPTE ST 12-1; ffmpeg's
 // own "ntsc" rate abbreviation is 30000/1001, ffmpeg-utils(1) "Video rate").
 import { describe, expect, it } from "vitest";
-import { chooseFrameRate, formatRateForFfmpeg } from "@/lib/media/choose-frame-rate";
+import { chooseFrameRate, formatRateForFfmpeg } from "@/lib/processing/choose-frame-rate";
 
 describe("chooseFrameRate", () => {
   it.each([

@@ -1,7 +1,7 @@
 // Thumbnail density: a tile every few seconds. The sprite limit is libjpeg's JPEG_MAX_DIMENSION of
 // 65,500 px (recalled from memory, as lib/vtt/plan-thumbnail-sprite.ts notes).
 import { describe, expect, it } from "vitest";
-import { chooseThumbnailPlan } from "@/lib/media/choose-thumbnail-plan";
+import { chooseThumbnailPlan } from "@/lib/processing/choose-thumbnail-plan";
 
 describe("chooseThumbnailPlan", () => {
   it.each([

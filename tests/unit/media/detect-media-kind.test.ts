@@ -3,7 +3,7 @@
 // the 4-character type; 'ftyp' major brand 'qt  ' for QuickTime files, Apple QuickTime File Format
 // specification), JPEG SOI marker FF D8 followed by a marker FF xx (ITU-T T.81 B.1.1.3).
 import { describe, expect, it } from "vitest";
-import { detectMediaKind } from "@/lib/media/detect-media-kind";
+import { detectMediaKind } from "@/lib/processing/detect-media-kind";
 
 const bytes = (...parts: Array<number[] | string>) =>
   Uint8Array.from(parts.flatMap((p) => (typeof p === "string" ? [...p].map((c) => c.charCodeAt(0)) : p)));

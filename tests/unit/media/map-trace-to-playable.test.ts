@@ -1,7 +1,7 @@
 // Trace intervals on the recorder's clock (lost frames count) mapped onto the playable's clock
 // (present frames only, from the first IDR). Worked by hand at 30 fps.
 import { describe, expect, it } from "vitest";
-import { mapTraceToPlayable } from "@/lib/media/map-trace-to-playable";
+import { mapTraceToPlayable } from "@/lib/processing/map-trace-to-playable";
 
 const iv = (state: "intact" | "damaged" | "lost", startFrame: number, endFrame: number) => ({
   state,

@@ -1,7 +1,7 @@
 // How the playable MP4 is made. Browser support (recalled from memory, MDN "Web video codec guide"):
 // H.264 8-bit 4:2:0 progressive plays everywhere; High 10, 4:2:2, 4:4:4 and interlaced do not reliably.
 import { describe, expect, it } from "vitest";
-import { planContainerPlayable, planRawPlayable } from "@/lib/media/plan-playable";
+import { planContainerPlayable, planRawPlayable } from "@/lib/processing/plan-playable";
 
 const clean = { chromaFormatIdc: 1, bitDepthLuma: 8, interlaced: false, startsWithIdr: true, firstIdrOffset: 0 };
 

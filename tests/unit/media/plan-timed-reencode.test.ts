@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { planTimedReencode, slotTimestampExpression } from "@/lib/media/plan-timed-reencode";
+import { planTimedReencode, slotTimestampExpression } from "@/lib/processing/plan-timed-reencode";
 
 // The setpts expression evaluated the way ffmpeg's expression evaluator reads it (libavutil/eval.c:
 // if(x,y,z), lt, eq, round, st/ld memory cells, ';' evaluates left then right), so the balanced

@@ -2,7 +2,7 @@
 // clamped percentage. Time format: ffmpeg-utils(1), "Time duration" ([-][HH:]MM:SS[.m...]); the
 // values below are worked by hand from that syntax.
 import { describe, expect, it } from "vitest";
-import { clampPercent, parseTimemark, progressFromTimemark } from "@/lib/media/progress-from-timemark";
+import { clampPercent, parseTimemark, progressFromTimemark } from "@/lib/processing/progress-from-timemark";
 
 describe("parseTimemark", () => {
   it.each([

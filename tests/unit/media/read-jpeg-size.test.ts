@@ -1,7 +1,7 @@
 // JPEG size from the frame header. Bytes laid out by hand after ITU-T T.81: SOI FFD8 (B.1.1.3),
 // APPn/DQT/DHT segments with 2-byte lengths (B.1.1.4), SOF0 FFC0 Lf P Y X (B.2.2, Table B.2).
 import { describe, expect, it } from "vitest";
-import { jpegSizeOf } from "@/lib/media/read-jpeg-size";
+import { jpegSizeOf } from "@/lib/processing/read-jpeg-size";
 
 const app0 = [0xff, 0xe0, 0x00, 0x10, 0x4a, 0x46, 0x49, 0x46, 0x00, 0x01, 0x02, 0x00, 0x00, 0x01, 0x00, 0x01, 0x00, 0x00];
 const dht = [0xff, 0xc4, 0x00, 0x04, 0x00, 0x00]; // DHT must not be read as a frame header

@@ -2,7 +2,7 @@
 // below were printed by Debian's ffmpeg/ffprobe 5.1 on this project's failure fixtures
 // (tests/integration/processing/failures.test.ts) and on an audio-only MP4 mapped with -map 0:v:0.
 import { describe, expect, it } from "vitest";
-import { refusalFromToolError, RecordingRefused } from "@/lib/media/recording-refused";
+import { refusalFromToolError, RecordingRefused } from "@/lib/recordings/recording-refused";
 
 describe("refusalFromToolError", () => {
   it.each([

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { beaconCollectionDomain } from "@/lib/playback/beacon-collection-domain";
+import { beaconCollectionDomain } from "@/lib/playback-analytics/beacon-collection-domain";
 import { muxBeaconUrlFunction } from "./mux-embed-source";
 
 const beaconUrl = muxBeaconUrlFunction();

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { BEACON_FIELDS, beaconField } from "@/lib/playback/beacon-keys";
+import { BEACON_FIELDS, beaconField } from "@/lib/playback-analytics/beacon-keys";
 import { FIRST_WORDS, LATER_WORDS } from "./mux-embed-source";
 
 // mux-embed's shortening, as its shipped code does it: split the key on "_", the first word through

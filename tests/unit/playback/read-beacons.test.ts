@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { readBeacons, BeaconError } from "@/lib/playback/read-beacons";
+import { readBeacons, BeaconError } from "@/lib/playback-analytics/read-beacons";
 
 const rec = "7b0d3f1e-3f4c-4c55-9b8a-0d7c0e7a1f00";
 const t0 = Date.UTC(2026, 2, 14, 9, 0, 0);

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { describeFrameCount } from "@/components/player/describe-frame-count";
-import { describeLostFrames } from "@/lib/media/recording-figures";
+import { describeLostFrames } from "@/lib/recordings/recording-figures";
 
 describe("the frame count beside the frame number", () => {
   it("counts every frame slot: a 360-frame file reads 'of 360', not 'of 359'", () => {

@@ -1,7 +1,7 @@
 // The report's line on a recording's signal: "at least N lost" when the stored count is a lower bound,
 // and the first degradation at the frame time the review room shows.
 import { describe, expect, it } from "vitest";
-import { computeRecordingFigures } from "@/lib/media/recording-figures";
+import { computeRecordingFigures } from "@/lib/recordings/recording-figures";
 import { describeRecordingDuration, describeRecordingSignal } from "@/lib/reports/describe-recording-signal";
 
 const states = () => {

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { aggregateRangeChart, median, NOT_RECORDED, EVENT_OFFSET, type ChartInputRow } from "@/lib/range/aggregate-range-chart";
+import { aggregateRangeChart, median, NOT_RECORDED, EVENT_OFFSET, type ChartInputRow } from "@/lib/range-checks/aggregate-range-chart";
 
 let n = 0;
 const row = (event: ChartInputRow["event"], slantRangeM: number, over: Partial<ChartInputRow> = {}): ChartInputRow => ({

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { buildRangeChecksCsv, RANGE_CHECK_CSV_HEADER, type RangeCheckExportRow } from "@/lib/range/build-range-checks-csv";
+import { buildRangeChecksCsv, RANGE_CHECK_CSV_HEADER, type RangeCheckExportRow } from "@/lib/range-checks/build-range-checks-csv";
 import { feetToMetres, slantRange } from "@/lib/geo";
 
 const base: RangeCheckExportRow = {

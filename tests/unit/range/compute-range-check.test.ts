@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import geographiclib from "geographiclib-geodesic";
-import { computeRangeCheckFigures } from "@/lib/range/compute-range-check";
+import { computeRangeCheckFigures } from "@/lib/range-checks/compute-range-check";
 import { feetToMetres, metresToFeet, GeoInputError } from "@/lib/geo";
 
 // GeographicLib (C. F. F. Karney), called directly: the outside reference for every distance below.

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import geographiclib from "geographiclib-geodesic";
-import { demoRangeChecks } from "@/lib/range/demo-range-checks";
+import { demoRangeChecks } from "@/lib/range-checks/demo-range-checks";
 import { DEMO_FLIGHTS } from "@/db/seed/demo-scenario";
 
 const wgs84 = geographiclib.Geodesic.WGS84;

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import geographiclib from "geographiclib-geodesic";
-import { findingDistances } from "@/lib/range/finding-distances";
+import { findingDistances } from "@/lib/range-checks/finding-distances";
 import { feetToMetres, metresToFeet } from "@/lib/geo";
 
 // GeographicLib (C. F. F. Karney), called directly, is the outside reference for the ground leg.

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { convertTypedLength, formatBearing, formatMetresIn } from "@/lib/range/format-figures";
+import { convertTypedLength, formatBearing, formatMetresIn } from "@/lib/range-checks/format-figures";
 import { feetToMetres, slantRange } from "@/lib/geo";
 
 describe("figures on screen", () => {

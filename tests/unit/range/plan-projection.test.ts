@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import geographiclib from "geographiclib-geodesic";
-import { fromPlan, roundLengthBelow, toPlan } from "@/lib/range/plan-projection";
+import { fromPlan, roundLengthBelow, toPlan } from "@/lib/range-checks/plan-projection";
 
 // GeographicLib (C. F. F. Karney) is the outside reference: an azimuthal equidistant plan keeps every
 // geodesic distance and azimuth from its centre.

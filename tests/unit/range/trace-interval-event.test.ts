@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { linkEventForInterval, traceLinkEvents } from "@/lib/range/trace-interval-event";
+import { linkEventForInterval, traceLinkEvents } from "@/lib/range-checks/trace-interval-event";
 import type { TraceInterval } from "@/db/schema/media";
 
 const fps = 30;

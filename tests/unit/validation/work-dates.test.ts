@@ -1,7 +1,7 @@
 // Dates shown for jobs and flights are the site's calendar date; "overdue" is judged there too.
 import { describe, expect, it } from "vitest";
-import { isOverdue, isoDateIn } from "@/lib/work/format-work-dates";
-import { altitudeCautionsToShow, formatAltitude } from "@/lib/work/format-altitude";
+import { isOverdue, isoDateIn } from "@/lib/filing/format-work-dates";
+import { altitudeCautionsToShow, formatAltitude } from "@/lib/filing/format-altitude";
 
 describe("isoDateIn", () => {
   it("gives the local calendar date of an instant", () => {

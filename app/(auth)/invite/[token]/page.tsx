@@ -1,7 +1,7 @@
 // /invite/:token: the page an invitation mail links to. A new person chooses a name and password;
 // someone with an account joins. Stale links say why and what to do.
 import Link from "next/link";
-import { describeInvitation } from "@/lib/work/invitations";
+import { describeInvitation } from "@/lib/members/invitations";
 import { ROLE_LABELS } from "@/lib/auth/permissions";
 import { AcceptInvitationForm } from "@/components/work/accept-invitation-form";
 

@@ -5,7 +5,7 @@ import { inScope } from "@/lib/auth/client-scope";
 import type { Member } from "@/lib/auth/load-member";
 import { can } from "@/lib/auth/permissions";
 import { ApiError } from "@/lib/api/errors";
-import { getFlightOrThrow } from "@/lib/work/flights";
+import { getFlightOrThrow } from "@/lib/filing/flights";
 import { FlightDetailView, type FlightDetailData } from "@/components/work/flight-detail-view";
 import { FLIGHT_SECTIONS } from "@/components/work/flight-sections";
 import { DetailSection } from "@/components/work/detail-section";

@@ -5,7 +5,7 @@ import { inScope } from "@/lib/auth/client-scope";
 import type { Member } from "@/lib/auth/load-member";
 import { can } from "@/lib/auth/permissions";
 import { ApiError } from "@/lib/api/errors";
-import { getJobOrThrow } from "@/lib/work/jobs";
+import { getJobOrThrow } from "@/lib/filing/jobs";
 import { JobDetailView, type JobDetailData } from "@/components/work/job-detail-view";
 import { JOB_SECTIONS } from "@/components/work/job-sections";
 import { DetailSection } from "@/components/work/detail-section";

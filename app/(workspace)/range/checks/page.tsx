@@ -1,7 +1,7 @@
 // /range/checks?flightId=: range checks of one flight, its signal-trace events, the comparison chart.
 import { pageMember } from "@/lib/auth/page-member";
 import { can } from "@/lib/auth/permissions";
-import { loadRangeFlights } from "@/lib/range/load-range-page-data";
+import { loadRangeFlights } from "@/lib/range-checks/load-range-page-data";
 import { RangeChecksView } from "@/components/range/range-checks-view";
 
 export const metadata = { title: "Range checks" };

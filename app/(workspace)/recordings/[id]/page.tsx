@@ -2,7 +2,7 @@ import { notFound } from "next/navigation";
 import { pageMember } from "@/lib/auth/page-member";
 import { inScope } from "@/lib/auth/client-scope";
 import { can } from "@/lib/auth/permissions";
-import { loadRecordingPage } from "@/lib/findings/load-recording-page";
+import { loadRecordingPage } from "@/lib/recordings/load-recording-page";
 import { loadFindingView } from "@/lib/findings/finding-view";
 import { RecordingReview } from "@/components/player/recording-review";
 

@@ -2,7 +2,7 @@
 import { requireInScope } from "@/lib/auth/client-scope";
 import { withOrg, readJson, idParam, ok } from "@/lib/api/with-org";
 import { clientInput } from "@/lib/validation/work";
-import { getClientOrThrow, updateClient } from "@/lib/work/clients";
+import { getClientOrThrow, updateClient } from "@/lib/filing/clients";
 import { z } from "zod";
 
 type P = { id: string };

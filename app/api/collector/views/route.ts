@@ -1,7 +1,7 @@
 // GET /api/collector/views?recordingId=: who watched a recording, when, and how playback went
 import { z } from "zod";
 import { withOrg, parseQuery, ok } from "@/lib/api/with-org";
-import { listPlaybackViews } from "@/lib/playback/list-playback-views";
+import { listPlaybackViews } from "@/lib/playback-analytics/list-playback-views";
 
 const query = z.object({ recordingId: z.string().uuid() });
 

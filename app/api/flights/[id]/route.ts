@@ -2,7 +2,7 @@
 import { requireInScope } from "@/lib/auth/client-scope";
 import { withOrg, readJson, idParam, ok } from "@/lib/api/with-org";
 import { flightPatch } from "@/lib/validation/work";
-import { getFlightOrThrow, updateFlight } from "@/lib/work/flights";
+import { getFlightOrThrow, updateFlight } from "@/lib/filing/flights";
 
 type P = { id: string };
 const NOT_FOUND = "Flight not found";

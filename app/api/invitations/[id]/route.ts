@@ -1,6 +1,6 @@
 // DELETE /api/invitations/:id: withdraw a pending invitation (its link stops working)
 import { withOrg, idParam, ok } from "@/lib/api/with-org";
-import { revokeInvitation } from "@/lib/work/invitations";
+import { revokeInvitation } from "@/lib/members/invitations";
 
 type P = { id: string };
 

@@ -5,7 +5,7 @@ import { ApiError, errorResponse } from "@/lib/api/errors";
 import { claimTokenTry, forgiveTokenTry } from "@/lib/sharing/guard-share-token";
 import { refuseCrossSite } from "@/lib/api/refuse-cross-site";
 import { acceptInviteInput } from "@/lib/validation/members";
-import { acceptInvitation } from "@/lib/work/accept-invitation";
+import { acceptInvitation } from "@/lib/members/accept-invitation";
 
 export async function POST(req: Request): Promise<Response> {
   try {

@@ -2,7 +2,7 @@
 import { requireInScope } from "@/lib/auth/client-scope";
 import { withOrg, readJson, idParam, ok } from "@/lib/api/with-org";
 import { jobPatch } from "@/lib/validation/work";
-import { getJobOrThrow, updateJob } from "@/lib/work/jobs";
+import { getJobOrThrow, updateJob } from "@/lib/filing/jobs";
 
 type P = { id: string };
 const NOT_FOUND = "Job not found";

@@ -2,7 +2,7 @@
 // The last owner can be neither demoted nor removed (409).
 import { withOrg, readJson, idParam, ok } from "@/lib/api/with-org";
 import { roleChangeInput } from "@/lib/validation/members";
-import { changeMemberRole, removeMember } from "@/lib/work/members";
+import { changeMemberRole, removeMember } from "@/lib/members/members";
 
 type P = { userId: string };
 const NOT_FOUND = "Member not found";

@@ -1,7 +1,7 @@
 // GET/PATCH/DELETE /api/range-checks/:id: read, edit (slant range recomputed), archive one range check
 import { withOrg, readJson, idParam, ok } from "@/lib/api/with-org";
 import { rangeCheckPatchInput } from "@/lib/validation/range-checks";
-import { archiveRangeCheck, getRangeCheckOrThrow, updateRangeCheck } from "@/lib/range/range-checks";
+import { archiveRangeCheck, getRangeCheckOrThrow, updateRangeCheck } from "@/lib/range-checks/range-checks";
 
 type P = { id: string };
 

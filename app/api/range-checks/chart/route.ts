@@ -2,8 +2,8 @@
 import { z } from "zod";
 import { withOrg, parseQuery, ok } from "@/lib/api/with-org";
 import { flightFilter } from "@/lib/validation/range-checks";
-import { CHART_DIMENSIONS, aggregateRangeChart } from "@/lib/range/aggregate-range-chart";
-import { loadRangeChartRows } from "@/lib/range/load-range-check-export";
+import { CHART_DIMENSIONS, aggregateRangeChart } from "@/lib/range-checks/aggregate-range-chart";
+import { loadRangeChartRows } from "@/lib/range-checks/load-range-check-export";
 
 const query = flightFilter.extend({ by: z.enum(CHART_DIMENSIONS, { message: "Compare by camera orientation, antenna orientation or aircraft" }).default("cameraOrientation") });
 

@@ -1,8 +1,8 @@
 // GET /api/range-checks/export.csv?flightId=: range checks of one flight (or all flights) as RFC 4180 CSV
 import { withOrg, parseQuery } from "@/lib/api/with-org";
 import { flightFilter } from "@/lib/validation/range-checks";
-import { buildRangeChecksCsv } from "@/lib/range/build-range-checks-csv";
-import { loadRangeCheckExportRows } from "@/lib/range/load-range-check-export";
+import { buildRangeChecksCsv } from "@/lib/range-checks/build-range-checks-csv";
+import { loadRangeCheckExportRows } from "@/lib/range-checks/load-range-check-export";
 
 export const GET = withOrg({ permission: "range.read" }, async ({ req, member }) => {
   const { flightId } = parseQuery(req, flightFilter);

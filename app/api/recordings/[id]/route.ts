@@ -1,7 +1,7 @@
 // GET /api/recordings/:id: one recording with its facts, state and tags
 import { requireInScope } from "@/lib/auth/client-scope";
 import { withOrg, idParam, ok } from "@/lib/api/with-org";
-import { getRecordingOrThrow } from "@/lib/ingest/get-recording";
+import { getRecordingOrThrow } from "@/lib/recordings/get-recording";
 
 type P = { id: string };
 

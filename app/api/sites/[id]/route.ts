@@ -2,7 +2,7 @@
 import { requireInScope } from "@/lib/auth/client-scope";
 import { withOrg, readJson, idParam, ok } from "@/lib/api/with-org";
 import { sitePatch } from "@/lib/validation/work";
-import { getSiteOrThrow, updateSite } from "@/lib/work/sites";
+import { getSiteOrThrow, updateSite } from "@/lib/filing/sites";
 
 type P = { id: string };
 const NOT_FOUND = "Site not found";

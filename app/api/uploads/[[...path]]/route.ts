@@ -1,7 +1,7 @@
 // /api/uploads: the tus 1.0.0 endpoint for recordings (POST, HEAD, PATCH, DELETE, OPTIONS) and
-// GET /api/uploads/<id>, the outcome of one upload. Logic in lib/ingest/handle-upload-request.ts.
+// GET /api/uploads/<id>, the outcome of one upload. Logic in lib/uploads/handle-upload-request.ts.
 // Request bodies stream straight to the staging folder: no proxy.ts matcher may include this path.
-import { handleUploadRequest } from "@/lib/ingest/handle-upload-request";
+import { handleUploadRequest } from "@/lib/uploads/handle-upload-request";
 
 export const runtime = "nodejs";
 export const dynamic = "force-dynamic";

@@ -1,5 +1,5 @@
 // GET/HEAD /api/media/stills/:id: a finding's full-resolution still (JPEG), authorized on every request
-import { handleMediaRequest } from "@/lib/media-access/handle-media-request";
+import { handleMediaRequest } from "@/lib/media-serving/handle-media-request";
 import { idParam } from "@/lib/api/with-org";
 
 type Ctx = { params: Promise<{ id: string }> };

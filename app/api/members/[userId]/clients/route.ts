@@ -3,7 +3,7 @@
 import { withOrg, readJson, idParam, ok } from "@/lib/api/with-org";
 import { notFound } from "@/lib/api/errors";
 import { memberClientsInput } from "@/lib/validation/members";
-import { memberClientsOf, setMemberClients } from "@/lib/work/member-clients";
+import { memberClientsOf, setMemberClients } from "@/lib/members/member-clients";
 
 type P = { userId: string };
 const NOT_FOUND = "Member not found";

@@ -5,7 +5,7 @@ import { z } from "zod";
 import { plainText } from "@/lib/validation/common";
 import { withOrg, readJson, idParam, ok } from "@/lib/api/with-org";
 import { requestFacts } from "@/lib/custody/record-custody-event";
-import { deleteRecording } from "@/lib/custody/delete-recording";
+import { deleteRecording } from "@/lib/recordings/delete-recording";
 import { requireInScope } from "@/lib/auth/client-scope";
 
 type P = { id: string };

@@ -1,6 +1,6 @@
 // GET /api/recordings/:id/original: the original, byte for byte, as a download with its SHA-256 (a custody event)
 import { withOrg, idParam } from "@/lib/api/with-org";
-import { serveOriginal } from "@/lib/ingest/serve-original";
+import { serveOriginal } from "@/lib/recordings/serve-original";
 
 type P = { id: string };
 

@@ -3,8 +3,8 @@
 // recording is ready or failed (Postgres holds the progress the worker writes).
 import { requireInScope } from "@/lib/auth/client-scope";
 import { withOrg, idParam, ok } from "@/lib/api/with-org";
-import { readProcessingProgress, type ProcessingProgress } from "@/lib/media/read-processing-progress";
-import { RECORDING_NOT_FOUND } from "@/lib/media/request-reprocess";
+import { readProcessingProgress, type ProcessingProgress } from "@/lib/recordings/read-processing-progress";
+import { RECORDING_NOT_FOUND } from "@/lib/recordings/request-reprocess";
 
 type P = { id: string };
 const POLL_MS = 1000; // the worker writes at most every 1.5 s

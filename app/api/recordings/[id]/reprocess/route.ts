@@ -3,8 +3,8 @@
 import { z } from "zod";
 import { withOrg, idParam } from "@/lib/api/with-org";
 import { ApiError } from "@/lib/api/errors";
-import { MAX_FPS, MIN_FPS } from "@/lib/media/choose-frame-rate";
-import { requestReprocess, RECORDING_NOT_FOUND } from "@/lib/media/request-reprocess";
+import { MAX_FPS, MIN_FPS } from "@/lib/processing/choose-frame-rate";
+import { requestReprocess, RECORDING_NOT_FOUND } from "@/lib/recordings/request-reprocess";
 
 type P = { id: string };
 const body = z

@@ -2,7 +2,7 @@
 import { requireInScope } from "@/lib/auth/client-scope";
 import { z } from "zod";
 import { withOrg, idParam, parseQuery, readJson, ok } from "@/lib/api/with-org";
-import { addRecordingTag, recordingTagNames, removeRecordingTag, tagInput, tagName } from "@/lib/ingest/tag-recording";
+import { addRecordingTag, recordingTagNames, removeRecordingTag, tagInput, tagName } from "@/lib/recordings/tag-recording";
 
 type P = { id: string };
 const id = (params: P) => idParam(params.id, "Recording not found");

@@ -2,8 +2,8 @@
 // playable's clock, summary), or why it has none
 import { requireInScope } from "@/lib/auth/client-scope";
 import { withOrg, idParam, ok } from "@/lib/api/with-org";
-import { readRecordingTrace } from "@/lib/media/read-recording-trace";
-import { RECORDING_NOT_FOUND } from "@/lib/media/request-reprocess";
+import { readRecordingTrace } from "@/lib/recordings/read-recording-trace";
+import { RECORDING_NOT_FOUND } from "@/lib/recordings/request-reprocess";
 
 type P = { id: string };
 

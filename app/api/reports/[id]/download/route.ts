@@ -1,5 +1,5 @@
 // GET/HEAD /api/reports/:id/download: a built report's PDF as a download (Range supported), logged in the custody chain
-import { handleMediaRequest } from "@/lib/media-access/handle-media-request";
+import { handleMediaRequest } from "@/lib/media-serving/handle-media-request";
 import { idParam } from "@/lib/api/with-org";
 import { recordCustodyEvent, requestFacts } from "@/lib/custody/record-custody-event";
 import { countsAsDownload } from "@/lib/custody/counts-as-download";

@@ -1,6 +1,6 @@
 // GET/HEAD /api/media/recordings/:id/:file: a recording's derived file (playable MP4, poster, sprite,
 // WebVTT thumbnail track) with HTTP Range, authorized on every request
-import { handleMediaRequest } from "@/lib/media-access/handle-media-request";
+import { handleMediaRequest } from "@/lib/media-serving/handle-media-request";
 import { idParam } from "@/lib/api/with-org";
 import { notFound } from "@/lib/api/errors";
 

@@ -2,7 +2,7 @@
 // fps; frame-exact work needs the ratio, and the NTSC-family rates (N*1000/1001) have no finite
 // decimal, so a decimal within half a thousandth of one of them is read as that ratio.
 import { reduceFrameRate, type FrameRate } from "@/lib/timecode/frame-rate";
-import { readRecordingFigures, type RecordingFigures } from "@/lib/media/recording-figures";
+import { readRecordingFigures, type RecordingFigures } from "@/lib/recordings/recording-figures";
 
 // 23.976, 29.97, 47.952, 59.94, 119.88: the N*1000/1001 family (SMPTE ST 12-1 names 29.97 and 59.94;
 // the others are common practice, no published source here).
@@ -23,7 +23,7 @@ export type RecordingTimingSource = {
   fpsOverride: number | null;
   durationSec: number | null;
   facts: { fps?: number | null; frameCount?: number; durationSec?: number } | null;
-  /** The worker's stored figures (lib/media/recording-figures.ts); when present they decide. */
+  /** The worker's stored figures (lib/recordings/recording-figures.ts); when present they decide. */
   figures?: unknown;
 };
 

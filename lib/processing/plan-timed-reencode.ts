@@ -24,7 +24,7 @@
 // second keeps seeking and frame stepping quick in the browser; maxrate/bufsize cap the bursts that
 // concealed noise would otherwise cost; yuv420p 8-bit is what every browser decodes; `scale` to the
 // first picture size keeps one size when the stream changes resolution mid-way (the encoder cannot).
-import type { FrameRateRatio } from "./recording-figures";
+import type { FrameRateRatio } from "../recordings/recording-figures";
 
 export interface TimedReencodeInput {
   /** Slot of each frame present in the file, in file order (presentFrameSlots of the trace). */

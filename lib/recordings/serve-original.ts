@@ -15,7 +15,7 @@ import type { Member } from "@/lib/auth/load-member";
 import { recordCustodyEvent, requestFacts } from "@/lib/custody/record-custody-event";
 import { buildContentDisposition } from "@/lib/http/build-content-disposition";
 import { readKey, statKey } from "@/lib/storage/local-store";
-import type { RecordingKind } from "./sniff-content";
+import type { RecordingKind } from "../uploads/sniff-content";
 
 const MEDIA_TYPES: Record<RecordingKind, string> = {
   // RFC 6184 registers video/H264 for RTP payloads, not for Annex B files: an opaque download is honest

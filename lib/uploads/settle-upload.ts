@@ -23,7 +23,7 @@ import { recordCustodyEvent, requestFacts } from "@/lib/custody/record-custody-e
 import { enqueue } from "@/lib/queue/jobs";
 import { placeOriginal, removeKey, statKey, storePath } from "@/lib/storage/local-store";
 import { originalKey } from "@/lib/storage/storage-keys";
-import { insertRecordingRow } from "./insert-recording-row";
+import { insertRecordingRow } from "../recordings/insert-recording-row";
 import { readFileHead } from "./read-file-head";
 import { recordingIdForUpload } from "./recording-id-for-upload";
 import { refusalMessage, sniffContent } from "./sniff-content";

@@ -4,9 +4,9 @@ import { and, eq, isNull } from "drizzle-orm";
 import { db } from "@/db/client";
 import { recordings, signalTraces } from "@/db/schema";
 import { ApiError } from "@/lib/api/errors";
-import type { RecordingFacts } from "./derive-recording-outputs";
-import { mapTraceToPlayable, type PlayableInterval } from "./map-trace-to-playable";
-import type { TraceSummaryRecord } from "./build-trace-record";
+import type { RecordingFacts } from "../processing/derive-recording-outputs";
+import { mapTraceToPlayable, type PlayableInterval } from "../processing/map-trace-to-playable";
+import type { TraceSummaryRecord } from "../processing/build-trace-record";
 import { RECORDING_NOT_FOUND } from "./request-reprocess";
 import { readRecordingFigures, type RecordingFigures } from "./recording-figures";
 

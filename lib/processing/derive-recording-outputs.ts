@@ -8,10 +8,10 @@ import path from "node:path";
 import type { ProbeFacts } from "@/db/schema/media";
 import { probeStream, type ProbeResult, type StreamFacts } from "@/lib/h264/probe-stream";
 import { FrameState, findFrameAtOffset, presentFrameSlots, type SignalTrace } from "@/lib/h264/signal-trace";
-import { frameRateFromFps } from "@/lib/findings/recording-frame-rate";
+import { frameRateFromFps } from "@/lib/recordings/recording-frame-rate";
 import { locateDecoderEvents } from "@/lib/h264/ffmpeg-decode-errors";
 import { sha256OfStream } from "@/lib/custody/sha256-stream";
-import { readFileHead } from "@/lib/ingest/read-file-head";
+import { readFileHead } from "@/lib/uploads/read-file-head";
 import { buildTraceRecord, type TraceRecord } from "./build-trace-record";
 import { chooseFrameRate } from "./choose-frame-rate";
 import { chooseThumbnailPlan } from "./choose-thumbnail-plan";
@@ -23,8 +23,8 @@ import { planContainerPlayable, planRawPlayable, type PlayablePlan } from "./pla
 import { readContainerFacts, type ContainerFacts } from "./read-container-facts";
 import { readJpegSize } from "./read-jpeg-size";
 import { planTimedReencode } from "./plan-timed-reencode";
-import { computeRecordingFigures, type RecordingFigures } from "./recording-figures";
-import { RecordingRefused, refusalFromToolError } from "./recording-refused";
+import { computeRecordingFigures, type RecordingFigures } from "../recordings/recording-figures";
+import { RecordingRefused, refusalFromToolError } from "../recordings/recording-refused";
 
 export const PLAYABLE_FILE = "playable.mp4";
 const STAMPED_FILE = "stamped.nut";

@@ -10,7 +10,7 @@ import type { Member } from "@/lib/auth/load-member";
 import { can } from "@/lib/auth/permissions";
 import { removeKey, storePath } from "@/lib/storage/local-store";
 import { derivedFolderKey } from "@/lib/storage/storage-keys";
-import { recordCustodyEvent, type RequestFacts } from "./record-custody-event";
+import { recordCustodyEvent, type RequestFacts } from "../custody/record-custody-event";
 
 type Facts = RequestFacts;
 

@@ -9,7 +9,7 @@ import { env } from "@/lib/config/env";
 import { composeMail, sendMail } from "@/lib/mail/send-mail";
 import { jobCrew } from "./job-crew";
 import { sendOnce } from "./send-once";
-import { describeLostFrames, readRecordingFigures, type RecordingFigures } from "@/lib/media/recording-figures";
+import { describeLostFrames, readRecordingFigures, type RecordingFigures } from "@/lib/recordings/recording-figures";
 
 export type NotifyResult = { sent: string[]; skipped?: string; error?: string };
 

@@ -2,7 +2,7 @@
 // SOI to the first SOFn segment, whose payload is precision (1 byte), height (2), width (2)
 // (ITU-T T.81 B.1.1 marker layout, B.2.2 frame header; SOF markers are FFC0-FFCF except DHT FFC4,
 // JPG FFC8 and DAC FFCC).
-import { readFileHead } from "@/lib/ingest/read-file-head";
+import { readFileHead } from "@/lib/uploads/read-file-head";
 
 const HEAD_BYTES = 64 * 1024; // frame headers sit well inside the first 64 KiB of ffmpeg's JPEGs
 

@@ -4,8 +4,8 @@
 import { and, asc, eq, isNull } from "drizzle-orm";
 import { db } from "@/db/client";
 import * as s from "@/db/schema";
-import { recordingFileUrl } from "@/lib/media-access/media-urls";
-import { readRecordingFigures } from "@/lib/media/recording-figures";
+import { recordingFileUrl } from "@/lib/media-serving/media-urls";
+import { readRecordingFigures } from "@/lib/recordings/recording-figures";
 import { recordingTiming } from "./recording-frame-rate";
 
 const fileOf = (key: string) => key.slice(key.lastIndexOf("/") + 1);
@@ -90,7 +90,7 @@ export async function loadRecordingPage(organisationId: string, recordingId: str
           recorderClock: !!timing.figures,
         }
       : null,
-    /** the worker's stored figures (lib/media/recording-figures.ts), null before they exist */
+    /** the worker's stored figures (lib/recordings/recording-figures.ts), null before they exist */
     figures: timing?.figures ?? null,
     media: { playable: url("playable"), poster: url("poster"), thumbnails: url("thumbnails_vtt") },
     // one duration per recording: the stored figures' when there are figures
