@@ -11,6 +11,7 @@ import { ROLE_LABELS } from "@/lib/auth/permissions";
 import type { Role } from "@/db/schema/types";
 
 const NAV: { href: string; label: string; roles?: Role[] }[] = [
+  { href: "/today", label: "Today" },
   { href: "/jobs", label: "Jobs" },
   { href: "/flights", label: "Flights" },
   { href: "/upload", label: "Upload", roles: ["owner", "pilot"] },
@@ -73,7 +74,7 @@ export function WorkspaceShell({
       </a>
       <header className="border-b border-line bg-paper">
         <div className="mx-auto flex max-w-7xl flex-wrap items-center gap-4 px-4 py-2">
-          <Link href="/jobs" aria-label="Cairn home">
+          <Link href="/today" aria-label="Cairn home">
             <CairnMark />
           </Link>
           <span className="rounded bg-paper-2 px-2 py-1 text-sm font-medium" data-testid="org-name">
