@@ -50,7 +50,9 @@ export async function startChaosProxy(opts: {
       const flowing = upstream.write(chunk);
       if (opts.delayPerChunkMs) {
         client.pause();
-        setTimeout(() => (flowing ? client.resume() : upstream.once("drain", () => client.resume())), opts.delayPerChunkMs);
+        // after the pause, wait for "drain" only if the upstream still needs it: a drain that fired
+        // during the pause would otherwise never come again, and the client would stay paused for good
+        setTimeout(() => (upstream.writableNeedDrain ? upstream.once("drain", () => client.resume()) : client.resume()), opts.delayPerChunkMs);
       } else if (!flowing) {
         client.pause();
         upstream.once("drain", () => client.resume());
