@@ -15,3 +15,4 @@ export const shareScopeEnum = pgEnum("share_scope", ["recording", "findings", "r
 export const shareEventKindEnum = pgEnum("share_event_kind", ["open", "download", "passcode_refused", "media"]);
 export const linkEventEnum = pgEnum("link_event", ["first_degradation", "total_loss", "reacquired"]);
 export const stillStateEnum = pgEnum("still_state", ["pending", "ready", "failed"]);
+export const evidencePackageStateEnum = pgEnum("evidence_package_state", ["queued", "building", "ready", "failed", "expired"]);

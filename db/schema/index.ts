@@ -4,4 +4,5 @@ export * from "./work";
 export * from "./media";
 export * from "./review";
 export * from "./sharing";
+export * from "./evidence";
 export * from "./relations";

@@ -1,4 +1,4 @@
-import { pgTable, uuid, text, timestamp, bigint, doublePrecision, uniqueIndex, index, boolean } from "drizzle-orm/pg-core";
+import { pgTable, uuid, text, timestamp, bigint, doublePrecision, uniqueIndex, index, boolean, integer } from "drizzle-orm/pg-core";
 import { roleEnum, unitsEnum } from "./enums";
 
 const timestamps = {
@@ -15,6 +15,8 @@ export const organisations = pgTable("organisations", {
   defaultControllerFps: doublePrecision("default_controller_fps").notNull().default(30),
   storageQuotaBytes: bigint("storage_quota_bytes", { mode: "number" }),
   timeZone: text("time_zone").notNull().default("UTC"),
+  // how long a closed job's evidence is kept, in days (lib/retention); null: no default set
+  retentionDays: integer("retention_days"),
   ...timestamps,
 });
 

@@ -4,6 +4,7 @@ import { organisations, users, timestamps } from "./organisations";
 import { jobs } from "./work";
 import { recordings } from "./media";
 import { reports } from "./review";
+import { evidencePackages } from "./evidence";
 import { shareScopeEnum, shareEventKindEnum, roleEnum } from "./enums";
 
 const orgRef = () => uuid("organisation_id").notNull().references(() => organisations.id, { onDelete: "cascade" });
@@ -27,6 +28,8 @@ export const shareLinks = pgTable(
     failedPasscodeAttempts: integer("failed_passcode_attempts").notNull().default(0),
     lockedUntil: timestamp("locked_until", { withTimezone: true }),
     allowOriginals: boolean("allow_originals").notNull().default(false),
+    // an evidence package of the job the link lets its holder download (lib/evidence-packages)
+    evidencePackageId: uuid("evidence_package_id").references(() => evidencePackages.id),
     revokedAt: timestamp("revoked_at", { withTimezone: true }),
     revokedBy: uuid("revoked_by").references(() => users.id, { onDelete: "set null" }),
     createdBy: uuid("created_by").references(() => users.id, { onDelete: "set null" }),

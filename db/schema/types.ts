@@ -25,3 +25,4 @@ export type ShareLink = InferSelectModel<typeof s.shareLinks>;
 export type CustodyEvent = InferSelectModel<typeof s.custodyEvents>;
 export type CustodyCheckpoint = InferSelectModel<typeof s.custodyCheckpoints>;
 export type Role = Membership["role"];
+export type EvidencePackage = InferSelectModel<typeof s.evidencePackages>;

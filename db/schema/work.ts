@@ -1,5 +1,5 @@
 // Clients, sites, jobs, flights: how a crew files its work.
-import { pgTable, uuid, text, timestamp, doublePrecision, date, boolean, index, primaryKey } from "drizzle-orm/pg-core";
+import { pgTable, uuid, text, timestamp, doublePrecision, date, boolean, index, primaryKey, integer } from "drizzle-orm/pg-core";
 import { organisations, users, memberships, timestamps } from "./organisations";
 import { assetKindEnum, jobStatusEnum } from "./enums";
 
@@ -14,6 +14,8 @@ export const clients = pgTable(
     contactName: text("contact_name"),
     contactEmail: text("contact_email"),
     notes: text("notes"),
+    // overrides the organisation's retention period for this client's jobs, in days (lib/retention)
+    retentionDays: integer("retention_days"),
     archivedAt: timestamp("archived_at", { withTimezone: true }),
     ...timestamps,
   },
@@ -53,6 +55,12 @@ export const jobs = pgTable(
     reviewerId: uuid("reviewer_id").references(() => users.id, { onDelete: "set null" }),
     legalHold: boolean("legal_hold").notNull().default(false),
     legalHoldReason: text("legal_hold_reason"),
+    // retention (lib/retention): this job's own period in days (overrides client and organisation);
+    // when it was closed (set by a trigger, migration 0008); when its files were disposed of, and by whom
+    retentionDays: integer("retention_days"),
+    closedAt: timestamp("closed_at", { withTimezone: true }),
+    disposedAt: timestamp("disposed_at", { withTimezone: true }),
+    disposedBy: uuid("disposed_by").references(() => users.id, { onDelete: "set null" }),
     archivedAt: timestamp("archived_at", { withTimezone: true }),
     ...timestamps,
   },
