@@ -14,7 +14,7 @@ export function UnitsToggle({ units, onChange, saving, error }: { units: Display
             type="button"
             aria-pressed={units === u}
             onClick={() => units !== u && onChange(u)}
-            className={`min-h-10 rounded px-3 text-sm font-medium ${units === u ? "bg-lake text-white" : "text-ink hover:bg-paper"}`}
+            className={`min-h-10 rounded px-3 text-sm font-medium ${units === u ? "bg-lake text-on-lake" : "text-ink hover:bg-paper"}`}
           >
             {LABELS[u]}
           </button>

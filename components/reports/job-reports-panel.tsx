@@ -9,6 +9,7 @@ import { Button } from "@/components/ui/button";
 import { HashText } from "@/components/ui/hash-text";
 import { FormError } from "@/components/ui/panel";
 import type { ReportView } from "@/lib/reports/report-view";
+import { formatBytes } from "@/lib/uploads/format-bytes";
 
 /** A report version as the JSON API sends it: the server's view, with dates as ISO strings. */
 export type ReportItem = Omit<ReportView, "jobId" | "createdAt" | "approvedAt"> & { createdAt: string; approvedAt: string | null };
@@ -77,7 +78,7 @@ function ReportRow({ r, canApprove, onChanged }: { r: ReportItem; canApprove: bo
         </span>
         {r.downloadUrl && (
           <a href={r.downloadUrl} className="ml-auto text-lake underline" download data-testid="report-download">
-            Download PDF{r.sizeBytes ? ` (${Math.ceil(r.sizeBytes / 1024)} KiB)` : ""}
+            Download PDF{r.sizeBytes ? ` (${formatBytes(r.sizeBytes)})` : ""}
           </a>
         )}
       </div>

@@ -16,21 +16,12 @@ import type { ShareView, ShareViewFinding } from "@/lib/sharing/build-share-view
 import { SharePlayer, type SharePlayerHandle } from "./share-player";
 import { FindingTimeline } from "./finding-timeline";
 import { SeverityStone } from "./severity-stone";
+import { formatBytes } from "@/lib/uploads/format-bytes";
 
 const REFRESH_MARGIN_MS = 90_000; // fetch fresh addresses 90 s before the old ones expire
 
-function formatBytes(n: number | null): string {
-  if (n === null) return "size unknown";
-  if (n < 1024) return `${n} B`;
-  const units = ["KiB", "MiB", "GiB", "TiB"];
-  let v = n / 1024;
-  let i = 0;
-  while (v >= 1024 && i < units.length - 1) {
-    v /= 1024;
-    i++;
-  }
-  return `${v.toFixed(1)} ${units[i]}`;
-}
+// one formatter and one unit system (decimal) for every size Cairn shows
+const formatSize = (n: number | null) => (n === null ? "size unknown" : formatBytes(n));
 
 // The recording's exact frame rate, when it is known: times on this page are then frame times, the
 // same labels the review room, the findings and the report give for the same moment.
@@ -139,7 +130,7 @@ export function ShareViewer({ initialView, gatePath, manifestPath }: { initialVi
                         setCurrent(0);
                         setRecordingId(r.id);
                       }}
-                      className={`rounded-md border px-3 py-2 text-sm ${r.id === recordingId ? "border-lake bg-lake text-white" : "border-line hover:bg-paper-2"}`}
+                      className={`rounded-md border px-3 py-2 text-sm ${r.id === recordingId ? "border-lake bg-lake text-on-lake" : "border-line hover:bg-paper-2"}`}
                     >
                       {r.name}
                     </button>
@@ -219,12 +210,12 @@ export function ShareViewer({ initialView, gatePath, manifestPath }: { initialVi
           <div className="mt-2 flex flex-col gap-3">
             {view.report ? (
               <div className="flex flex-wrap items-center gap-3 rounded-md border border-line p-3">
-                <a href={view.report.url} download className="inline-flex min-h-10 items-center rounded-md border border-lake bg-lake px-4 text-sm font-medium text-white hover:bg-lake-dark">
+                <a href={view.report.url} download className="inline-flex min-h-10 items-center rounded-md border border-lake bg-lake px-4 text-sm font-medium text-on-lake hover:bg-lake-dark">
                   Download the report (PDF)
                 </a>
                 <span className="text-sm">
                   Version {view.report.version}
-                  {view.report.approved ? ", approved" : ", not yet approved"} · {formatBytes(view.report.sizeBytes)}
+                  {view.report.approved ? ", approved" : ", not yet approved"} · {formatSize(view.report.sizeBytes)}
                 </span>
                 {view.report.sha256 && <HashText value={view.report.sha256} />}
               </div>
@@ -241,7 +232,7 @@ export function ShareViewer({ initialView, gatePath, manifestPath }: { initialVi
                       <a href={r.originalUrl ?? undefined} download className="min-h-10 rounded-md border border-line px-3 py-2 hover:bg-paper-2">
                         Download original: {r.name}
                       </a>
-                      <span>{formatBytes(r.sizeBytes)}</span>
+                      <span>{formatSize(r.sizeBytes)}</span>
                       <HashText value={r.sha256} />
                     </li>
                   ))}

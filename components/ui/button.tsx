@@ -2,7 +2,7 @@ import { forwardRef } from "react";
 
 type Variant = "primary" | "secondary" | "danger" | "quiet";
 const styles: Record<Variant, string> = {
-  primary: "bg-lake text-white hover:bg-lake-dark border border-lake",
+  primary: "bg-lake text-on-lake hover:bg-lake-dark border border-lake",
   secondary: "bg-paper text-ink border border-line hover:bg-paper-2",
   danger: "bg-bad text-white border border-bad hover:opacity-90",
   quiet: "bg-transparent text-ink hover:bg-paper-2 border border-transparent",

@@ -4,6 +4,10 @@
 // page reload re-adding the same file continues where it stopped (tus fingerprints in
 // localStorage). When a file completes, the server's outcome (stored with its hash, same bytes as
 // an existing recording, or refused with the reason) is fetched and reported to the page.
+// A refused file is taken off the widget (with a note in its message area) so the widget never
+// offers "Retry" for a file the server will refuse again: the widget and the outcome list agree.
+// Sizes: Uppy prints its own binary "KB"; Cairn writes decimal units everywhere (lib/uploads/format-bytes.ts),
+// so the widget's per-file sizes and byte counts are hidden and the outcome list shows the size.
 import Uppy, { type UppyFile } from "@uppy/core";
 import Tus from "@uppy/tus";
 import Dashboard from "@uppy/react/dashboard";
@@ -11,6 +15,8 @@ import { useEffect, useRef, useState } from "react";
 import { CLIENT_METADATA_KEYS } from "@/lib/uploads/upload-metadata";
 import { UPLOAD_CHUNK_BYTES, UPLOAD_RETRY_DELAYS_MS, UPLOAD_ROUTE_PATH } from "@/lib/uploads/upload-limits";
 import type { UploadOutcome } from "@/lib/uploads/upload-outcome";
+import { formatBytes } from "@/lib/uploads/format-bytes";
+import { classifyUploadFailure } from "./upload-failure";
 import "./uppy-styles.css";
 
 type Meta = {
@@ -27,12 +33,16 @@ export type FileReport = {
   fileId: string;
   name: string;
   relativePath: string | null;
+  /** the file's size in bytes, when known */
+  size?: number;
   /** every byte arrived; the server's outcome may still be on its way */
   received?: boolean;
   /** the server's outcome once known */
   outcome?: UploadOutcome;
-  /** why the upload stopped, when it did not complete */
+  /** why the upload stopped, when it did not complete and retrying may help */
   error?: string;
+  /** why the server refused the file, when it did: sending it again gets the same answer */
+  refused?: string;
 };
 
 const STORING_POLL_MS = 2_000;
@@ -49,17 +59,19 @@ async function fetchOutcome(uploadURL: string): Promise<UploadOutcome> {
   }
 }
 
-/** The server's reason from a failed tus request (our JSON error body), else a plain explanation. */
-function reasonOf(error: Error, response?: { status?: number; body?: { xhr?: XMLHttpRequest } }): string {
+/** The server's message from a failed tus request (our JSON error body), if there is one. */
+function serverMessageOf(response?: { status?: number; body?: { xhr?: XMLHttpRequest } }): string | null {
   const text = response?.body?.xhr?.responseText;
-  if (text) {
-    try {
-      const message = JSON.parse(text)?.error?.message;
-      if (typeof message === "string") return message;
-    } catch {
-      // not our JSON: fall through
-    }
+  if (!text) return null;
+  try {
+    const message = JSON.parse(text)?.error?.message;
+    return typeof message === "string" ? message : null;
+  } catch {
+    return null; // not our JSON
   }
+}
+
+function fallbackReason(error: Error, response?: { status?: number }): string {
   if (!response?.status) return "The connection dropped. Press retry, or add the same file again later: it continues where it stopped.";
   return error.message;
 }
@@ -74,6 +86,8 @@ export function RecordingUploader({ jobId, flightId, maxFileBytes, onReport }: {
       id: "cairn-recordings",
       autoProceed: true,
       restrictions: { maxFileSize: maxFileBytes },
+      // Uppy's own refusal of an oversize file, with the limit in Cairn's decimal units
+      locale: { strings: { exceedsSize: `%{file} is larger than the ${formatBytes(maxFileBytes)} limit for one upload` } } as never,
       onBeforeFileAdded: (file, files) => {
         if (Object.hasOwn(files, file.id)) return false; // Uppy's default: the same file once
         const data = file.data as File;
@@ -103,17 +117,39 @@ export function RecordingUploader({ jobId, flightId, maxFileBytes, onReport }: {
   }, [uppy, jobId, flightId]);
 
   useEffect(() => {
-    const base = (file: UppyFile<Meta, Body>) => ({ fileId: file.id, name: file.name ?? "file", relativePath: (file.meta.relativePath as string | null) ?? null });
+    const base = (file: UppyFile<Meta, Body>) => ({
+      fileId: file.id,
+      name: file.name ?? "file",
+      relativePath: (file.meta.relativePath as string | null) ?? null,
+      size: typeof file.size === "number" ? file.size : undefined,
+    });
+    // off the widget, with a word in its message area: the file cannot be accepted, so no "Retry"
+    const takeOff = (file: UppyFile<Meta, Body>, reason: string) => {
+      setTimeout(() => {
+        if (uppy.getFile(file.id)) uppy.removeFile(file.id);
+        uppy.info(`Refused: ${reason}`, "error", 8_000);
+      });
+    };
     const onSuccess = (file: UppyFile<Meta, Body> | undefined, response: { uploadURL?: string }) => {
       if (!file || !response.uploadURL) return;
       report.current({ ...base(file), received: true });
       fetchOutcome(response.uploadURL).then(
-        (outcome) => report.current({ ...base(file), outcome }),
+        (outcome) => {
+          if (outcome.state === "refused") {
+            report.current({ ...base(file), outcome, refused: outcome.reason });
+            takeOff(file, outcome.reason);
+          } else report.current({ ...base(file), outcome });
+        },
         (err: Error) => report.current({ ...base(file), error: err.message }),
       );
     };
     const onError = (file: UppyFile<Meta, Body> | undefined, error: Error, response?: { status?: number; body?: { xhr?: XMLHttpRequest } }) => {
-      if (file) report.current({ ...base(file), error: reasonOf(error, response) });
+      if (!file) return;
+      const failure = classifyUploadFailure(response?.status, serverMessageOf(response), fallbackReason(error, response));
+      if (failure.kind === "refused") {
+        report.current({ ...base(file), refused: failure.reason });
+        takeOff(file, failure.reason);
+      } else report.current({ ...base(file), error: failure.reason });
     };
     const onAdded = (file: UppyFile<Meta, Body> | undefined) => file && report.current({ ...base(file) });
     const onRetryAll = () => uppy.getFiles().forEach((f) => f.error && report.current({ ...base(f) }));
@@ -151,10 +187,10 @@ export function RecordingUploader({ jobId, flightId, maxFileBytes, onReport }: {
       height={420}
       fileManagerSelectionType="both"
       proudlyDisplayPoweredByUppy={false}
-      hideProgressDetails={false}
+      hideProgressDetails
       hideUploadButton
       showRemoveButtonAfterComplete={false}
-      note="Raw H.264 (.264, .h264, .avc or no extension), MP4, MOV and JPEG. Drop the whole SD-card folder; files are checked by their bytes on arrival."
+      note={`Raw H.264 (.264, .h264, .avc or no extension), MP4, MOV and JPEG, up to ${formatBytes(maxFileBytes)} each. Drop the whole SD-card folder; files are checked by their bytes on arrival.`}
     />
   );
 }

@@ -1,16 +1,20 @@
 "use client";
 // What became of each file of this session, in words: stored with its hash, the same bytes as a
 // recording already held (and where), refused with the server's reason, or stopped.
+// "Refused" and "stopped" differ: a refused file is not accepted however often it is sent (and the
+// widget above drops it); a stopped one continues when retried or added again.
 import { HashText } from "@/components/ui/hash-text";
+import { formatBytes } from "@/lib/uploads/format-bytes";
 import type { FileReport } from "./recording-uploader";
 
 function Line({ r }: { r: FileReport }) {
   const o = r.outcome;
+  if (r.refused) return <Refused reason={r.refused} />;
   if (r.error) {
     return (
       <p className="text-bad">
-        <span aria-hidden className="mr-1">✕</span>
-        {r.error}
+        <span aria-hidden className="mr-1">!</span>
+        <span className="font-medium">Stopped</span>, not stored yet: {r.error}
       </p>
     );
   }
@@ -45,34 +49,47 @@ function Line({ r }: { r: FileReport }) {
       );
     }
     case "refused":
-      return (
-        <p className="text-bad">
-          <span aria-hidden className="mr-1">✕</span>
-          {o.reason}
-        </p>
-      );
+      return <Refused reason={o.reason} />;
   }
+}
+
+function Refused({ reason }: { reason: string }) {
+  return (
+    <p className="text-bad">
+      <span aria-hidden className="mr-1">✕</span>
+      <span className="font-medium">Refused</span>: {reason}{" "}
+      <span className="text-ink-2">Sending it again gets the same answer, so it was taken off the uploader.</span>
+    </p>
+  );
+}
+
+export function stateOf(r: FileReport): string {
+  if (r.refused) return "refused";
+  if (r.error) return "error";
+  return r.outcome?.state ?? "uploading";
 }
 
 export function UploadOutcomeList({ reports }: { reports: FileReport[] }) {
   if (reports.length === 0) return null;
   const stored = reports.filter((r) => r.outcome?.state === "stored").length;
   const duplicates = reports.filter((r) => r.outcome?.state === "duplicate").length;
-  const refused = reports.filter((r) => r.outcome?.state === "refused" || r.error).length;
+  const refused = reports.filter((r) => stateOf(r) === "refused").length;
+  const stopped = reports.filter((r) => stateOf(r) === "error").length;
   return (
     <section aria-labelledby="outcomes-title" className="flex flex-col gap-2">
       <h2 id="outcomes-title" className="text-lg font-semibold">
         This session
       </h2>
       <p className="text-sm text-ink-2" aria-live="polite">
-        {reports.length} {reports.length === 1 ? "file" : "files"} · {stored} stored · {duplicates} already held · {refused} not stored
+        {reports.length} {reports.length === 1 ? "file" : "files"} · {stored} stored · {duplicates} already held · {refused} refused{stopped > 0 ? ` · ${stopped} stopped` : ""}
       </p>
       <ul className="divide-y divide-line rounded-md border border-line" aria-live="polite">
         {reports.map((r) => (
-          <li key={r.fileId} className="flex flex-col gap-1 px-3 py-2 text-sm" data-upload-file={r.name} data-upload-state={r.error ? "error" : (r.outcome?.state ?? "uploading")}>
+          <li key={r.fileId} className="flex flex-col gap-1 px-3 py-2 text-sm" data-upload-file={r.name} data-upload-state={stateOf(r)}>
             <span className="font-medium break-all">
               {r.name}
               {r.relativePath && r.relativePath !== r.name && <span className="ml-2 font-mono text-xs font-normal text-ink-2">{r.relativePath}</span>}
+              {r.size !== undefined && <span className="ml-2 text-xs font-normal text-ink-2 tabular">{formatBytes(r.size)}</span>}
             </span>
             <Line r={r} />
           </li>

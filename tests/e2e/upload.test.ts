@@ -163,7 +163,7 @@ describe("uploading an SD-card folder", () => {
 
     await page.locator(".uppy-Dashboard input.uppy-Dashboard-input:not([webkitdirectory])").first().setInputFiles(path.join(notes, "battery-log.264"));
     const line = page.locator('[data-upload-file="battery-log.264"]');
-    await expect.poll(() => line.getAttribute("data-upload-state"), { timeout: 30_000 }).toBe("error");
+    await expect.poll(() => line.getAttribute("data-upload-state"), { timeout: 30_000 }).toBe("refused");
     expect(await line.textContent()).toContain("“battery-log.264” was not stored: it is text, not a recording");
     await ctx.close();
   });
