@@ -20,6 +20,9 @@ export const CUSTODY_EVENT_LABELS: Record<CustodyEventType, string> = {
   hold_released: "Legal hold released",
   deletion_refused: "Deletion refused",
   deletion: "Files deleted",
+  package_built: "Evidence package built",
+  disposal_refused: "Disposal refused",
+  disposal: "Disposed of (retention ended)",
 };
 
 export const custodyEventLabel = (t: string) => CUSTODY_EVENT_LABELS[t as CustodyEventType] ?? t;

@@ -27,13 +27,16 @@ export const CUSTODY_EVENT_TYPES = [
   "hold_released",
   "deletion_refused",
   "deletion",
+  "package_built",
+  "disposal_refused",
+  "disposal",
 ] as const;
 export type CustodyEventType = (typeof CUSTODY_EVENT_TYPES)[number];
 
 export type CustodyInput = {
   organisationId: string;
   eventType: CustodyEventType;
-  evidenceType: "recording" | "rendition" | "still" | "finding" | "report" | "share_link" | "job";
+  evidenceType: "recording" | "rendition" | "still" | "finding" | "report" | "share_link" | "job" | "evidence_package";
   evidenceId?: string | null;
   jobId?: string | null;
   originalSha256?: string | null;

@@ -6,6 +6,7 @@
 //   derived/<org>/<recording id>/<file>                                       renditions, replaced as a folder
 //   stills/<org>/<recording id>/<still id>.jpg                                 frame stills (survive reprocessing)
 //   reports/<org>/<job id>/<report id>.pdf                                     built report PDFs
+//   packages/<org>/<package id>.zip                                            evidence packages (lib/evidence-packages)
 
 /** The folder of the originals, for the purge that lists it. */
 export const ORIGINALS_FOLDER = "originals";
@@ -41,4 +42,9 @@ export function stillKey(organisationId: string, recordingId: string, stillId: s
 export function reportKey(organisationId: string, jobId: string, reportId: string): string {
   assertIds(organisationId, jobId, reportId);
   return `reports/${organisationId}/${jobId}/${reportId}.pdf`;
+}
+
+export function evidencePackageKey(organisationId: string, packageId: string): string {
+  assertIds(organisationId, packageId);
+  return `packages/${organisationId}/${packageId}.zip`;
 }
