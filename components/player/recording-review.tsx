@@ -23,19 +23,15 @@ import { PlaybackViews } from "./playback-views";
 import { linkStateAt, RecordingTracePanel, useRecordingTrace } from "@/components/trace/recording-trace-panel";
 import { FlightTimeline } from "@/components/flight-timeline/flight-timeline";
 import { PLAYBACK_RATES, shortcutFor } from "./review-shortcuts";
+import { useProcessingProgress, type LiveProgress } from "./use-processing-progress";
 
 type Viewer = { userId: string; canWrite: boolean };
 
 export function RecordingReview({ data, viewer, initialFrame, initialFindingId }: { data: RecordingPageData; viewer: Viewer; initialFrame: number | null; initialFindingId: string | null }) {
   const { recording, timing, media } = data;
   const router = useRouter();
-  useEffect(() => {
-    if (recording.state === "ready") return;
-    // processing shows progress; the page refreshes until the recording is ready or failed
-    if (recording.state === "failed") return;
-    const t = setInterval(() => router.refresh(), 3000);
-    return () => clearInterval(t);
-  }, [recording.state, router]);
+  // processing shows live progress (server-sent events); the page refreshes once it is ready or failed
+  const live = useProcessingProgress(recording.id, recording, () => router.refresh());
 
   return (
     <div className="flex flex-col gap-4">
@@ -59,10 +55,7 @@ export function RecordingReview({ data, viewer, initialFrame, initialFindingId }
       </header>
       {data.flightFiles.length > 1 && <FlightTimeline flightId={recording.flightId} currentRecordingId={recording.id} />}
       {recording.state !== "ready" || !timing || !media.playable ? (
-        <EmptyState
-          title={recording.state === "failed" ? `Failed: ${recording.failureReason ?? "the recording could not be processed"}` : recording.state === "processing" ? `Processing ${recording.progress} %` : "Waiting to be processed"}
-          next={recording.state === "failed" ? "The original is kept unaltered. A pilot or owner can reprocess it from the flight page." : "The playable video, thumbnails and signal trace appear here when processing finishes."}
-        />
+        <ProcessingState live={live} />
       ) : (
         <ReviewRoom data={data} timing={timing} playable={media.playable} viewer={viewer} initialFrame={initialFrame} initialFindingId={initialFindingId} />
       )}
@@ -324,5 +317,24 @@ function ReviewRoom({
       {historyFor && <FindingHistory findingId={historyFor} onClose={() => setHistoryFor(null)} />}
       {categoriesOpen && <CategoriesEditor canWrite={viewer.canWrite} onClose={() => setCategoriesOpen(false)} />}
     </div>
+  );
+}
+
+function ProcessingState({ live }: { live: LiveProgress }) {
+  if (live.state === "failed")
+    return <EmptyState title={`Failed: ${live.failureReason ?? "the recording could not be processed"}`} next="The original is kept unaltered. A pilot or owner can reprocess it from the flight page." />;
+  const pct = Math.max(0, Math.min(100, Math.round(live.progress)));
+  return (
+    <EmptyState
+      title={live.state === "processing" ? `Processing ${pct} %` : live.state === "ready" ? "Ready: opening the review room" : "Waiting to be processed"}
+      next="The playable video, thumbnails and signal trace appear here when processing finishes."
+      action={
+        live.state === "processing" ? (
+          <span role="progressbar" aria-label="Processing" aria-valuenow={pct} aria-valuemin={0} aria-valuemax={100} className="block h-1.5 w-64 max-w-full rounded bg-paper-2">
+            <span className="block h-full rounded bg-lake" style={{ width: `${pct}%` }} />
+          </span>
+        ) : undefined
+      }
+    />
   );
 }

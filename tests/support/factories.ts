@@ -33,3 +33,22 @@ export async function makeFlight(organisationId: string, over: Partial<typeof s.
     .returning();
   return row;
 }
+
+/** A recording row only (no stored original): for lists, pages and states that need no media. */
+export async function makeRecording(organisationId: string, flight: { id: string; jobId: string }, over: Partial<typeof s.recordings.$inferInsert> = {}) {
+  const [row] = await db()
+    .insert(s.recordings)
+    .values({
+      organisationId,
+      jobId: flight.jobId,
+      flightId: flight.id,
+      originalName: `TEST${uniq()}.264`,
+      sizeBytes: 1024,
+      kind: "raw_h264",
+      sha256: "0".repeat(64),
+      state: "waiting",
+      ...over,
+    })
+    .returning();
+  return row;
+}
