@@ -11,6 +11,7 @@ import { extractStill } from "./extract-still";
 import { buildReport } from "./build-report";
 import { purgeUploads } from "./purge-uploads";
 import { custodyCheckpoints } from "./custody-checkpoints";
+import { buildEvidencePackage } from "./build-evidence-package";
 
 export type JobHandler<N extends JobName> = (data: JobPayloads[N], ctx: JobContext) => Promise<unknown>;
 export type JobRunner<N extends JobName> = (job: Job<JobPayloads[N]>, signal: AbortSignal) => Promise<void>;
@@ -29,4 +30,5 @@ export const handlers: JobHandlers = {
   "build-report": run(buildReport),
   "purge-uploads": run(purgeUploads),
   "custody-checkpoints": run(custodyCheckpoints),
+  "build-evidence-package": run(buildEvidencePackage),
 };
