@@ -5,4 +5,5 @@ export * from "./media";
 export * from "./review";
 export * from "./sharing";
 export * from "./evidence";
+export * from "./tracks";
 export * from "./relations";

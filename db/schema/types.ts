@@ -26,3 +26,5 @@ export type CustodyEvent = InferSelectModel<typeof s.custodyEvents>;
 export type CustodyCheckpoint = InferSelectModel<typeof s.custodyCheckpoints>;
 export type Role = Membership["role"];
 export type EvidencePackage = InferSelectModel<typeof s.evidencePackages>;
+export type FlightTrack = InferSelectModel<typeof s.flightTracks>;
+export type TrackAlignment = InferSelectModel<typeof s.trackAlignments>;
