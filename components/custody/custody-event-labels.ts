@@ -23,6 +23,8 @@ export const CUSTODY_EVENT_LABELS: Record<CustodyEventType, string> = {
   package_built: "Evidence package built",
   disposal_refused: "Disposal refused",
   disposal: "Disposed of (retention ended)",
+  track_imported: "Flight track imported",
+  track_aligned: "Flight track aligned with the recordings",
 };
 
 export const custodyEventLabel = (t: string) => CUSTODY_EVENT_LABELS[t as CustodyEventType] ?? t;

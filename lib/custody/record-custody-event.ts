@@ -30,13 +30,15 @@ export const CUSTODY_EVENT_TYPES = [
   "package_built",
   "disposal_refused",
   "disposal",
+  "track_imported",
+  "track_aligned",
 ] as const;
 export type CustodyEventType = (typeof CUSTODY_EVENT_TYPES)[number];
 
 export type CustodyInput = {
   organisationId: string;
   eventType: CustodyEventType;
-  evidenceType: "recording" | "rendition" | "still" | "finding" | "report" | "share_link" | "job" | "evidence_package";
+  evidenceType: "recording" | "rendition" | "still" | "finding" | "report" | "share_link" | "job" | "evidence_package" | "track";
   evidenceId?: string | null;
   jobId?: string | null;
   originalSha256?: string | null;
