@@ -6,6 +6,7 @@
 //   derived/<org>/<recording id>/<file>                                       renditions, replaced as a folder
 //   stills/<org>/<recording id>/<still id>.jpg                                 frame stills (survive reprocessing)
 //   reports/<org>/<job id>/<report id>.pdf                                     built report PDFs
+//   tracks/<org>/<track id>                                                   write-once flight tracks (lib/tracks)
 //   packages/<org>/<package id>.zip                                            evidence packages (lib/evidence-packages)
 
 /** The folder of the originals, for the purge that lists it. */
@@ -47,4 +48,10 @@ export function reportKey(organisationId: string, jobId: string, reportId: strin
 export function evidencePackageKey(organisationId: string, packageId: string): string {
   assertIds(organisationId, packageId);
   return `packages/${organisationId}/${packageId}.zip`;
+}
+
+/** A flight track's write-once file (GPX or CSV as imported), beside the originals but never among them. */
+export function trackKey(organisationId: string, trackId: string): string {
+  assertIds(organisationId, trackId);
+  return `tracks/${organisationId}/${trackId}`;
 }
