@@ -27,6 +27,11 @@ export const PERMISSIONS = [
   "settings.manage",
   "views.read",
   "range.read",
+  // evidence packages (lib/evidence-packages): building one, downloading a built one; retention and
+  // disposal (lib/retention)
+  "packages.build",
+  "packages.download",
+  "retention.manage",
 ] as const;
 export type Permission = (typeof PERMISSIONS)[number];
 
@@ -51,6 +56,7 @@ export const ROLE_PERMISSIONS: Record<Role, ReadonlySet<Permission>> = {
     "rangechecks.write",
     "views.read",
     "range.read",
+    "packages.download",
   ]),
   reviewer: new Set<Permission>([
     "workspace.read",
@@ -63,6 +69,8 @@ export const ROLE_PERMISSIONS: Record<Role, ReadonlySet<Permission>> = {
     "custody.read",
     "views.read",
     "range.read",
+    "packages.build",
+    "packages.download",
   ]),
   client: new Set<Permission>(["workspace.read", "recordings.read", "findings.read"]),
 };

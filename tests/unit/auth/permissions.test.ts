@@ -21,13 +21,14 @@ const EXPECTED: Record<(typeof ROLES)[number], Permission[]> = {
     "rangechecks.write",
     "views.read",
     "range.read",
+    "packages.download",
   ],
-  reviewer: ["workspace.read", "recordings.read", "recordings.tag", "originals.download", "findings.read", "findings.write", "reports.build", "custody.read", "views.read", "range.read"],
+  reviewer: ["workspace.read", "recordings.read", "recordings.tag", "originals.download", "findings.read", "findings.write", "reports.build", "custody.read", "views.read", "range.read", "packages.build", "packages.download"],
   client: ["workspace.read", "recordings.read", "findings.read"],
 };
 
 const WORK_WRITES: Permission[] = ["clients.write", "sites.write", "jobs.write", "flights.write"];
-const MANAGEMENT: Permission[] = ["members.manage", "shares.manage", "holds.manage", "settings.manage", "reports.approve", "recordings.delete"];
+const MANAGEMENT: Permission[] = ["members.manage", "shares.manage", "holds.manage", "settings.manage", "reports.approve", "recordings.delete", "retention.manage"];
 
 describe("permission table", () => {
   it("covers exactly the four roles of the schema", () => {
