@@ -3,13 +3,15 @@
 // still appears without a reload.
 import { useQuery } from "@tanstack/react-query";
 import { fetchJson } from "@/components/fetch-json";
+import { fetchAllPages } from "@/components/fetch-all-pages";
 import type { CategoryItem, FindingItem } from "./finding-types";
 
 export function useFindings(filter: { recordingId: string } | { jobId: string }) {
   const qs = "recordingId" in filter ? `recordingId=${filter.recordingId}` : `jobId=${filter.jobId}`;
   return useQuery({
     queryKey: ["findings", qs],
-    queryFn: () => fetchJson<{ items: FindingItem[]; total: number }>(`/api/findings?${qs}`),
+    // the review room draws every finding of the recording: read all pages
+    queryFn: () => fetchAllPages<FindingItem>(`/api/findings?${qs}`),
     refetchInterval: (q) => (q.state.data?.items.some((f) => f.still?.state === "pending") ? 1500 : false),
   });
 }

@@ -8,6 +8,7 @@ import { loadMember, type Member } from "@/lib/auth/load-member";
 import { can, type Permission } from "@/lib/auth/permissions";
 import { refuseCrossSite } from "./refuse-cross-site";
 import { plainText, safeText } from "@/lib/validation/common";
+import { cursorParam, MAX_PAGE_SIZE } from "./keyset";
 
 export type OrgContext<P> = { req: Request; params: P; member: Member };
 type RouteArg = { params: Promise<Record<string, string | string[]>> };
@@ -56,11 +57,16 @@ export function idParam(value: string | string[] | undefined, what = "Not found"
   return r.data;
 }
 
-/** Reads list query parameters (search, sort, page) with bounds. */
+/**
+ * Reads list query parameters (search, sort, paging) with bounds. Paging is by keyset: `cursor` is the
+ * previous answer's `nextCursor` (lib/api/keyset.ts). `page` still works for the first pages of old
+ * callers but is capped, so nobody can make the database walk a deep OFFSET.
+ */
 export const listQuery = z.object({
   q: plainText(200).optional(),
-  page: z.coerce.number().int().min(1).max(100000).default(1),
-  pageSize: z.coerce.number().int().min(1).max(200).default(25),
+  page: z.coerce.number().int().min(1).max(1000).default(1),
+  pageSize: z.coerce.number().int().min(1).max(MAX_PAGE_SIZE).default(25),
+  cursor: cursorParam,
   sort: safeText().max(40).optional(),
   dir: z.enum(["asc", "desc"]).default("asc"),
   archived: z.enum(["0", "1"]).default("0"),

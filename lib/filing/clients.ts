@@ -1,9 +1,10 @@
 // Clients of the organisation: list, read, create, update, archive.
-import { and, asc, eq, type SQL } from "drizzle-orm";
+import { and, count, eq, type SQL } from "drizzle-orm";
 import { db } from "@/db/client";
 import { clients, sites } from "@/db/schema";
 import { notFound } from "@/lib/api/errors";
-import { listOrder, listWhere, pageOf, totalCount, type ListParams } from "@/lib/api/list";
+import { keysetOf, keysetPage, listWhere, type ListParams } from "@/lib/api/list";
+import { afterCursor, keysetColumns, keysetOrder, pageOfRows } from "@/lib/api/keyset";
 import type { ClientInput } from "@/lib/validation/work";
 
 const columns = {
@@ -19,14 +20,29 @@ const columns = {
 
 /** `scope`: a further condition, e.g. a client account's clients (lib/auth/client-scope.ts). */
 export async function listClients(orgId: string, params: ListParams, scope?: SQL) {
-  const rows = await db()
-    .select({ ...columns, siteCount: db().$count(sites, and(eq(sites.clientId, clients.id), eq(sites.organisationId, orgId))), total: totalCount })
-    .from(clients)
-    .where(listWhere({ orgFilter: eq(clients.organisationId, orgId), params, searchColumns: [clients.name, clients.contactName, clients.contactEmail], archivedColumn: clients.archivedAt, extra: [scope] }))
-    .orderBy(...listOrder(params, { name: clients.name, contactName: clients.contactName, createdAt: clients.createdAt }, asc(clients.name)))
-    .limit(pageOf(params).limit)
-    .offset(pageOf(params).offset);
-  return { items: rows.map(({ total: _t, ...r }) => r), total: rows[0]?.total ?? 0 };
+  const where = listWhere({ orgFilter: eq(clients.organisationId, orgId), params, searchColumns: [clients.name, clients.contactName, clients.contactEmail], archivedColumn: clients.archivedAt, extra: [scope] });
+  const { ordering, keys } = keysetOf(
+    params,
+    { name: { expr: clients.name, type: "text", notNull: true }, contactName: { expr: clients.contactName, type: "text" }, createdAt: { expr: clients.createdAt, type: "timestamptz", notNull: true } },
+    // by name (clients_org_name_idx)
+    [
+      { expr: clients.name, dir: "asc", type: "text", notNull: true },
+      { expr: clients.id, dir: "asc", type: "uuid", notNull: true },
+    ],
+    clients.id,
+  );
+  const page = keysetPage(params);
+  const [rows, [{ total }]] = await Promise.all([
+    db()
+      .select({ ...columns, siteCount: db().$count(sites, and(eq(sites.clientId, clients.id), eq(sites.organisationId, orgId))), ...keysetColumns(keys) })
+      .from(clients)
+      .where(and(where, afterCursor(params.cursor, ordering, keys)))
+      .orderBy(...keysetOrder(keys))
+      .limit(page.limit)
+      .offset(page.offset),
+    db().select({ total: count() }).from(clients).where(where),
+  ]);
+  return { ...pageOfRows(rows, params.pageSize, ordering, keys), total };
 }
 
 export async function getClientOrThrow(orgId: string, id: string) {

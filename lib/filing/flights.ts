@@ -1,10 +1,11 @@
 // Flights of the organisation: list, read, create, update, archive. A flight is one sortie flown for a job.
-import { and, asc, desc, eq, sql, type SQL } from "drizzle-orm";
+import { and, count, eq, sql, type SQL } from "drizzle-orm";
 import { alias } from "drizzle-orm/pg-core";
 import { db, type DbOrTx } from "@/db/client";
 import { clients, flights, jobs, sites, users } from "@/db/schema";
 import { ApiError, notFound } from "@/lib/api/errors";
-import { listOrder, listWhere, pageOf, totalCount } from "@/lib/api/list";
+import { keysetOf, keysetPage, listWhere } from "@/lib/api/list";
+import { afterCursor, keysetColumns, keysetOrder, pageOfRows, type KeyPart } from "@/lib/api/keyset";
 import type { Member } from "@/lib/auth/load-member";
 import { FLIGHT_LAUNCH_PAIR, coordinatePairIssue, type FlightInput, type FlightPatch } from "@/lib/validation/work";
 import type { FlightListQuery } from "@/lib/validation/list-filters";
@@ -41,50 +42,78 @@ const related = {
 
 const joined = () =>
   db()
-    .select({ ...columns, ...related, total: totalCount })
+    .select({ ...columns, ...related })
     .from(flights)
     .innerJoin(jobs, eq(jobs.id, flights.jobId))
     .innerJoin(sites, eq(sites.id, jobs.siteId))
     .innerJoin(clients, eq(clients.id, sites.clientId))
     .leftJoin(pilot, eq(pilot.id, flights.pilotId));
 
+// newest flight first, then the newest logged (flights_org_date_idx, read backwards)
+const DEFAULT_KEYS: KeyPart[] = [
+  { expr: flights.flownOn, dir: "desc", type: "date", notNull: true },
+  { expr: flights.createdAt, dir: "desc", type: "timestamptz", notNull: true },
+  { expr: flights.id, dir: "desc", type: "uuid", notNull: true },
+];
+
 /** `scope`: a further condition, e.g. a client account's clients (lib/auth/client-scope.ts). */
 export async function listFlights(orgId: string, params: FlightListQuery, scope?: SQL) {
-  const rows = await joined()
-    .where(
-      listWhere({
-        orgFilter: eq(flights.organisationId, orgId),
-        params,
-        searchColumns: [flights.aircraft, flights.notes, jobs.title, sites.name, clients.name, pilot.name],
-        archivedColumn: flights.archivedAt,
-        extra: [
-          scope,
-          params.jobId ? eq(flights.jobId, params.jobId) : undefined,
-          params.siteId ? eq(jobs.siteId, params.siteId) : undefined,
-          params.clientId ? eq(sites.clientId, params.clientId) : undefined,
-          params.pilotId ? eq(flights.pilotId, params.pilotId) : undefined,
-        ],
-      }),
-    )
-    .orderBy(
-      ...listOrder(
-        params,
-        { flownOn: flights.flownOn, jobTitle: jobs.title, siteName: sites.name, pilotName: pilot.name, aircraft: flights.aircraft, maxAltitudeAglM: flights.maxAltitudeAglM, createdAt: flights.createdAt },
-        desc(flights.flownOn),
-      ),
-      desc(flights.createdAt),
-      asc(flights.id),
-    )
-    .limit(pageOf(params).limit)
-    .offset(pageOf(params).offset);
-  return { items: rows.map(({ total: _t, ...r }) => r), total: rows[0]?.total ?? 0 };
+  const where = listWhere({
+    orgFilter: eq(flights.organisationId, orgId),
+    params,
+    searchColumns: [flights.aircraft, flights.notes, jobs.title, sites.name, clients.name, pilot.name],
+    archivedColumn: flights.archivedAt,
+    extra: [
+      scope,
+      params.jobId ? eq(flights.jobId, params.jobId) : undefined,
+      params.siteId ? eq(jobs.siteId, params.siteId) : undefined,
+      params.clientId ? eq(sites.clientId, params.clientId) : undefined,
+      params.pilotId ? eq(flights.pilotId, params.pilotId) : undefined,
+    ],
+  });
+  const { ordering, keys } = keysetOf(
+    params,
+    {
+      flownOn: { expr: flights.flownOn, type: "date", notNull: true },
+      jobTitle: { expr: jobs.title, type: "text", notNull: true },
+      siteName: { expr: sites.name, type: "text", notNull: true },
+      pilotName: { expr: pilot.name, type: "text" },
+      aircraft: { expr: flights.aircraft, type: "text" },
+      maxAltitudeAglM: { expr: flights.maxAltitudeAglM, type: "double precision" },
+      createdAt: { expr: flights.createdAt, type: "timestamptz", notNull: true },
+    },
+    DEFAULT_KEYS,
+    flights.id,
+  );
+  const page = keysetPage(params);
+  const [rows, [{ total }]] = await Promise.all([
+    db()
+      .select({ ...columns, ...related, ...keysetColumns(keys) })
+      .from(flights)
+      .innerJoin(jobs, eq(jobs.id, flights.jobId))
+      .innerJoin(sites, eq(sites.id, jobs.siteId))
+      .innerJoin(clients, eq(clients.id, sites.clientId))
+      .leftJoin(pilot, eq(pilot.id, flights.pilotId))
+      .where(and(where, afterCursor(params.cursor, ordering, keys)))
+      .orderBy(...keysetOrder(keys))
+      .limit(page.limit)
+      .offset(page.offset),
+    db()
+      .select({ total: count() })
+      .from(flights)
+      .innerJoin(jobs, eq(jobs.id, flights.jobId))
+      .innerJoin(sites, eq(sites.id, jobs.siteId))
+      .innerJoin(clients, eq(clients.id, sites.clientId))
+      .leftJoin(pilot, eq(pilot.id, flights.pilotId))
+      .where(where),
+  ]);
+  return { ...pageOfRows(rows, params.pageSize, ordering, keys), total };
 }
 
 export async function getFlightOrThrow(orgId: string, id: string) {
   const [row] = await joined().where(and(eq(flights.id, id), eq(flights.organisationId, orgId)));
   if (!row) throw notFound("Flight not found");
-  const { total: _t, ...flight } = row;
-  return flight;
+  return row;
 }
 export type FlightDetail = Awaited<ReturnType<typeof getFlightOrThrow>>;
 

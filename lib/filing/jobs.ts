@@ -1,11 +1,12 @@
 // Jobs of the organisation: list, read, create, update, archive. A job is a piece of inspection work
 // at a site, with a status and an assigned pilot and reviewer.
-import { and, asc, eq, inArray, isNull, sql, type SQL } from "drizzle-orm";
+import { and, count, eq, inArray, isNull, sql, type SQL } from "drizzle-orm";
 import { alias } from "drizzle-orm/pg-core";
 import { db, type DbOrTx } from "@/db/client";
-import { clients, flights, jobs, sites, users } from "@/db/schema";
+import { clients, flights, jobStatusEnum, jobs, sites, users } from "@/db/schema";
 import { notFound } from "@/lib/api/errors";
-import { listOrder, listWhere, pageOf, totalCount } from "@/lib/api/list";
+import { keysetOf, keysetPage, listWhere } from "@/lib/api/list";
+import { afterCursor, keysetColumns, keysetOrder, pageOfRows } from "@/lib/api/keyset";
 import type { JobInput, JobPatch } from "@/lib/validation/work";
 import type { JobListQuery } from "@/lib/validation/list-filters";
 import { requireCrewIn, requireSiteIn } from "./require-in-organisation";
@@ -39,46 +40,61 @@ const related = {
 
 /** `scope`: a further condition, e.g. a client account's clients (lib/auth/client-scope.ts). */
 export async function listJobs(orgId: string, params: JobListQuery, scope?: SQL) {
-  const rows = await db()
-    .select({
-      ...columns,
-      ...related,
-      flightCount: db().$count(flights, and(eq(flights.jobId, jobs.id), eq(flights.organisationId, orgId), isNull(flights.archivedAt))),
-      total: totalCount,
-    })
-    .from(jobs)
-    .innerJoin(sites, eq(sites.id, jobs.siteId))
-    .innerJoin(clients, eq(clients.id, sites.clientId))
-    .leftJoin(pilot, eq(pilot.id, jobs.pilotId))
-    .leftJoin(reviewer, eq(reviewer.id, jobs.reviewerId))
-    .where(
-      listWhere({
-        orgFilter: eq(jobs.organisationId, orgId),
-        params,
-        searchColumns: [jobs.title, jobs.scope, sites.name, clients.name],
-        archivedColumn: jobs.archivedAt,
-        extra: [
-          scope,
-          params.clientId ? eq(sites.clientId, params.clientId) : undefined,
-          params.siteId ? eq(jobs.siteId, params.siteId) : undefined,
-          params.pilotId ? eq(jobs.pilotId, params.pilotId) : undefined,
-          params.reviewerId ? eq(jobs.reviewerId, params.reviewerId) : undefined,
-          params.status?.length ? inArray(jobs.status, params.status) : undefined,
-        ],
-      }),
-    )
-    .orderBy(
-      ...listOrder(
-        params,
-        { title: jobs.title, status: jobs.status, dueDate: jobs.dueDate, siteName: sites.name, clientName: clients.name, pilotName: pilot.name, reviewerName: reviewer.name, createdAt: jobs.createdAt },
-        // soonest due first; undated work after dated work
-        sql`${jobs.dueDate} asc nulls last`,
-      ),
-      asc(jobs.id),
-    )
-    .limit(pageOf(params).limit)
-    .offset(pageOf(params).offset);
-  return { items: rows.map(({ total: _t, scope: _s, ...r }) => r), total: rows[0]?.total ?? 0 };
+  const where = listWhere({
+    orgFilter: eq(jobs.organisationId, orgId),
+    params,
+    searchColumns: [jobs.title, jobs.scope, sites.name, clients.name],
+    archivedColumn: jobs.archivedAt,
+    extra: [
+      scope,
+      params.clientId ? eq(sites.clientId, params.clientId) : undefined,
+      params.siteId ? eq(jobs.siteId, params.siteId) : undefined,
+      params.pilotId ? eq(jobs.pilotId, params.pilotId) : undefined,
+      params.reviewerId ? eq(jobs.reviewerId, params.reviewerId) : undefined,
+      params.status?.length ? inArray(jobs.status, params.status) : undefined,
+    ],
+  });
+  const { ordering, keys } = keysetOf(
+    params,
+    {
+      title: { expr: jobs.title, type: "text", notNull: true },
+      status: { expr: jobs.status, type: jobStatusEnum, notNull: true },
+      dueDate: { expr: jobs.dueDate, type: "date" },
+      siteName: { expr: sites.name, type: "text", notNull: true },
+      clientName: { expr: clients.name, type: "text", notNull: true },
+      pilotName: { expr: pilot.name, type: "text" },
+      reviewerName: { expr: reviewer.name, type: "text" },
+      createdAt: { expr: jobs.createdAt, type: "timestamptz", notNull: true },
+    },
+    // soonest due first; undated work after dated work (jobs_org_due_idx)
+    [
+      { expr: jobs.dueDate, dir: "asc", type: "date" },
+      { expr: jobs.id, dir: "asc", type: "uuid", notNull: true },
+    ],
+    jobs.id,
+  );
+  const page = keysetPage(params);
+  const [rows, [{ total }]] = await Promise.all([
+    db()
+      .select({
+        ...columns,
+        ...related,
+        flightCount: db().$count(flights, and(eq(flights.jobId, jobs.id), eq(flights.organisationId, orgId), isNull(flights.archivedAt))),
+        ...keysetColumns(keys),
+      })
+      .from(jobs)
+      .innerJoin(sites, eq(sites.id, jobs.siteId))
+      .innerJoin(clients, eq(clients.id, sites.clientId))
+      .leftJoin(pilot, eq(pilot.id, jobs.pilotId))
+      .leftJoin(reviewer, eq(reviewer.id, jobs.reviewerId))
+      .where(and(where, afterCursor(params.cursor, ordering, keys)))
+      .orderBy(...keysetOrder(keys))
+      .limit(page.limit)
+      .offset(page.offset),
+    // the crew joins cannot change the count (one user per id); the search needs the site and client
+    db().select({ total: count() }).from(jobs).innerJoin(sites, eq(sites.id, jobs.siteId)).innerJoin(clients, eq(clients.id, sites.clientId)).where(where),
+  ]);
+  return { ...pageOfRows(rows, params.pageSize, ordering, keys), total };
 }
 
 export async function getJobOrThrow(orgId: string, id: string) {

@@ -1,9 +1,10 @@
 // Sites of the organisation: list, read, create, update, archive.
-import { and, asc, eq, isNull, sql, type SQL } from "drizzle-orm";
+import { and, count, eq, isNull, sql, type SQL } from "drizzle-orm";
 import { db } from "@/db/client";
-import { clients, jobs, sites } from "@/db/schema";
+import { assetKindEnum, clients, jobs, sites } from "@/db/schema";
 import { ApiError, notFound } from "@/lib/api/errors";
-import { listOrder, listWhere, pageOf, totalCount } from "@/lib/api/list";
+import { keysetOf, keysetPage, listWhere } from "@/lib/api/list";
+import { afterCursor, keysetColumns, keysetOrder, pageOfRows } from "@/lib/api/keyset";
 import { coordinatePairIssue, type SiteInput, type SitePatch } from "@/lib/validation/work";
 import type { SiteListQuery } from "@/lib/validation/list-filters";
 import { requireClientIn } from "./require-in-organisation";
@@ -25,33 +26,48 @@ const columns = {
 
 /** `scope`: a further condition, e.g. a client account's clients (lib/auth/client-scope.ts). */
 export async function listSites(orgId: string, params: SiteListQuery, scope?: SQL) {
-  const rows = await db()
-    .select({
-      ...columns,
-      clientName: clients.name,
-      jobCount: db().$count(jobs, and(eq(jobs.siteId, sites.id), eq(jobs.organisationId, orgId), isNull(jobs.archivedAt))),
-      total: totalCount,
-    })
-    .from(sites)
-    .innerJoin(clients, eq(clients.id, sites.clientId))
-    .where(
-      listWhere({
-        orgFilter: eq(sites.organisationId, orgId),
-        params,
-        searchColumns: [sites.name, sites.address, clients.name],
-        archivedColumn: sites.archivedAt,
-        extra: [scope, params.clientId ? eq(sites.clientId, params.clientId) : undefined, params.assetKind ? eq(sites.assetKind, params.assetKind) : undefined],
-      }),
-    )
-    .orderBy(
-      ...listOrder(params, { name: sites.name, clientName: clients.name, assetKind: sites.assetKind, timeZone: sites.timeZone, createdAt: sites.createdAt }, asc(sites.name)),
-      asc(sites.id),
-    )
-    .limit(pageOf(params).limit)
-    .offset(pageOf(params).offset);
-  return { items: rows.map(({ total: _t, ...r }) => r), total: rows[0]?.total ?? 0 };
+  const where = listWhere({
+    orgFilter: eq(sites.organisationId, orgId),
+    params,
+    searchColumns: [sites.name, sites.address, clients.name],
+    archivedColumn: sites.archivedAt,
+    extra: [scope, params.clientId ? eq(sites.clientId, params.clientId) : undefined, params.assetKind ? eq(sites.assetKind, params.assetKind) : undefined],
+  });
+  const { ordering, keys } = keysetOf(
+    params,
+    {
+      name: { expr: sites.name, type: "text", notNull: true },
+      clientName: { expr: clients.name, type: "text", notNull: true },
+      assetKind: { expr: sites.assetKind, type: assetKindEnum, notNull: true },
+      timeZone: { expr: sites.timeZone, type: "text", notNull: true },
+      createdAt: { expr: sites.createdAt, type: "timestamptz", notNull: true },
+    },
+    // by name (sites_org_name_idx)
+    [
+      { expr: sites.name, dir: "asc", type: "text", notNull: true },
+      { expr: sites.id, dir: "asc", type: "uuid", notNull: true },
+    ],
+    sites.id,
+  );
+  const page = keysetPage(params);
+  const [rows, [{ total }]] = await Promise.all([
+    db()
+      .select({
+        ...columns,
+        clientName: clients.name,
+        jobCount: db().$count(jobs, and(eq(jobs.siteId, sites.id), eq(jobs.organisationId, orgId), isNull(jobs.archivedAt))),
+        ...keysetColumns(keys),
+      })
+      .from(sites)
+      .innerJoin(clients, eq(clients.id, sites.clientId))
+      .where(and(where, afterCursor(params.cursor, ordering, keys)))
+      .orderBy(...keysetOrder(keys))
+      .limit(page.limit)
+      .offset(page.offset),
+    db().select({ total: count() }).from(sites).innerJoin(clients, eq(clients.id, sites.clientId)).where(where),
+  ]);
+  return { ...pageOfRows(rows, params.pageSize, ordering, keys), total };
 }
-
 export async function getSiteOrThrow(orgId: string, id: string) {
   const [row] = await db()
     .select({ ...columns, clientName: clients.name })

@@ -1,6 +1,7 @@
 // What the API and pages show of a finding: its own columns, the category and author names, the
 // recording's name and original hash, and its newest still. Never the whole row (DEVELOPERS.md, "Data").
-import { and, asc, desc, eq, inArray, isNull, type SQL } from "drizzle-orm";
+import { and, count, desc, eq, inArray, isNull, type SQL } from "drizzle-orm";
+import { afterCursor, keysetColumns, keysetOrder, pageOfRows, type KeyPart, type KeysetParams } from "@/lib/api/keyset";
 import { db, type DbOrTx } from "@/db/client";
 import { findingCategories, findings, recordings, stills, users } from "@/db/schema";
 import type { FrameBox } from "@/db/schema/review";
@@ -62,22 +63,45 @@ const columns = {
   updatedAt: findings.updatedAt,
 };
 
+// the flight's order of recordings, then time order within each; the ids make the order total
+const KEYS: KeyPart[] = [
+  { expr: recordings.sequenceIndex, dir: "asc", type: "int", notNull: true },
+  { expr: recordings.createdAt, dir: "asc", type: "timestamptz", notNull: true },
+  { expr: findings.recordingId, dir: "asc", type: "uuid", notNull: true },
+  { expr: findings.startFrame, dir: "asc", type: "int", notNull: true },
+  { expr: findings.createdAt, dir: "asc", type: "timestamptz", notNull: true },
+  { expr: findings.id, dir: "asc", type: "uuid", notNull: true },
+];
+
 /** Live (not deleted) findings of the organisation matching `where`, in time order within each recording. */
 export async function loadFindingViews(organisationId: string, where: SQL | undefined, tx: DbOrTx = db()): Promise<FindingView[]> {
-  const rows = await tx
-    .select(columns)
+  return (await pageFindingViews(organisationId, where, undefined, tx)).items;
+}
+
+/** One keyset page of loadFindingViews's list, with the count of all of it (the findings API). */
+export async function listFindingViews(organisationId: string, where: SQL | undefined, page: KeysetParams) {
+  const all = and(eq(findings.organisationId, organisationId), isNull(findings.deletedAt), where);
+  const [result, [{ total }]] = await Promise.all([pageFindingViews(organisationId, where, page), db().select({ total: count() }).from(findings).where(all)]);
+  return { ...result, total };
+}
+
+async function pageFindingViews(organisationId: string, where: SQL | undefined, page: KeysetParams | undefined, tx: DbOrTx = db()) {
+  const query = tx
+    .select({ ...columns, ...keysetColumns(KEYS) })
     .from(findings)
     .innerJoin(recordings, eq(recordings.id, findings.recordingId))
     .leftJoin(findingCategories, eq(findingCategories.id, findings.categoryId))
     .leftJoin(users, eq(users.id, findings.createdBy))
-    .where(and(eq(findings.organisationId, organisationId), isNull(findings.deletedAt), where))
-    .orderBy(asc(recordings.sequenceIndex), asc(recordings.createdAt), asc(findings.startFrame), asc(findings.createdAt));
+    .where(and(eq(findings.organisationId, organisationId), isNull(findings.deletedAt), where, afterCursor(page?.cursor, "default", KEYS)))
+    .orderBy(...keysetOrder(KEYS));
+  const { items: rows, nextCursor } = page ? pageOfRows(await query.limit(page.pageSize + 1), page.pageSize, "default", KEYS) : pageOfRows(await query, Infinity, "default", KEYS);
   const latest = await latestStills(organisationId, rows.map((r) => r.id), tx);
-  return rows.map(({ createdById, createdByName, ...r }) => ({
+  const items: FindingView[] = rows.map(({ createdById, createdByName, ...r }) => ({
     ...r,
     createdBy: createdById ? { id: createdById, name: createdByName ?? "" } : null,
     still: latest.get(r.id) ?? null,
   }));
+  return { items, nextCursor };
 }
 
 /** The newest still of each finding: an edit that moves the finding asks for a new one. */

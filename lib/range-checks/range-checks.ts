@@ -1,11 +1,12 @@
 // Range checks of the organisation's flights: list, read, create, edit, archive. The slant range and
 // the derived half of the position are always computed here, on the server, from the stored inputs.
-import { and, asc, desc, eq, isNull, type SQL } from "drizzle-orm";
+import { and, count, eq, isNull, type SQL } from "drizzle-orm";
 import { db } from "@/db/client";
-import { flights, rangeChecks, recordings } from "@/db/schema";
+import { flights, linkEventEnum, rangeChecks, recordings } from "@/db/schema";
 import type { SelectedFields } from "drizzle-orm/pg-core";
 import { ApiError, notFound } from "@/lib/api/errors";
-import { listOrder, listWhere, pageOf, totalCount, type ListParams } from "@/lib/api/list";
+import { keysetOf, keysetPage, listWhere, type ListParams } from "@/lib/api/list";
+import { afterCursor, keysetColumns, keysetOrder, pageOfRows } from "@/lib/api/keyset";
 import type { Member } from "@/lib/auth/load-member";
 import { GeoInputError, fromMetres } from "@/lib/geo";
 import { rangeCheckValuesInput, type DisplayUnits, type RangeCheckCreateInput, type RangeCheckPatchInput, type RangeCheckValues } from "@/lib/validation/range-checks";
@@ -39,36 +40,43 @@ export type RangeCheckListParams = ListParams & { flightId?: string };
 export async function listRangeChecks(orgId: string, params: RangeCheckListParams) {
   // a flight of another organisation answers 404, like any of its records
   if (params.flightId) await getRangeCheckFlightOrThrow(orgId, params.flightId);
-  const rows = await selectRangeChecks({ total: totalCount })
-    .where(
-      listWhere({
-        orgFilter: eq(rangeChecks.organisationId, orgId),
-        params,
-        searchColumns: [rangeChecks.notes, rangeChecks.aircraft, rangeChecks.antennaOrientation, rangeChecks.cameraOrientation, rangeChecks.firmware],
-        archivedColumn: rangeChecks.archivedAt,
-        extra: [params.flightId ? eq(rangeChecks.flightId, params.flightId) : undefined],
-      }),
-    )
-    .orderBy(
-      ...listOrder(
-        params,
-        {
-          atSec: rangeChecks.atSec,
-          event: rangeChecks.event,
-          groundDistanceM: rangeChecks.groundDistanceM,
-          heightAglM: rangeChecks.heightAglM,
-          slantRangeM: rangeChecks.slantRangeM,
-          flownOn: flights.flownOn,
-          createdAt: rangeChecks.createdAt,
-        },
-        desc(flights.flownOn),
-      ),
-      asc(rangeChecks.atSec),
-      asc(rangeChecks.createdAt),
-    )
-    .limit(pageOf(params).limit)
-    .offset(pageOf(params).offset);
-  return { items: rows.map(({ total: _t, ...r }) => r), total: rows[0]?.total ?? 0 };
+  const where = listWhere({
+    orgFilter: eq(rangeChecks.organisationId, orgId),
+    params,
+    searchColumns: [rangeChecks.notes, rangeChecks.aircraft, rangeChecks.antennaOrientation, rangeChecks.cameraOrientation, rangeChecks.firmware],
+    archivedColumn: rangeChecks.archivedAt,
+    extra: [params.flightId ? eq(rangeChecks.flightId, params.flightId) : undefined],
+  });
+  const { ordering, keys } = keysetOf(
+    params,
+    {
+      atSec: { expr: rangeChecks.atSec, type: "double precision" },
+      event: { expr: rangeChecks.event, type: linkEventEnum, notNull: true },
+      groundDistanceM: { expr: rangeChecks.groundDistanceM, type: "double precision", notNull: true },
+      heightAglM: { expr: rangeChecks.heightAglM, type: "double precision", notNull: true },
+      slantRangeM: { expr: rangeChecks.slantRangeM, type: "double precision", notNull: true },
+      flownOn: { expr: flights.flownOn, type: "date", notNull: true },
+      createdAt: { expr: rangeChecks.createdAt, type: "timestamptz", notNull: true },
+    },
+    // newest flight first, then along the flight
+    [
+      { expr: flights.flownOn, dir: "desc", type: "date", notNull: true },
+      { expr: rangeChecks.atSec, dir: "asc", type: "double precision" },
+      { expr: rangeChecks.createdAt, dir: "asc", type: "timestamptz", notNull: true },
+      { expr: rangeChecks.id, dir: "asc", type: "uuid", notNull: true },
+    ],
+    rangeChecks.id,
+  );
+  const page = keysetPage(params);
+  const [rows, [{ total }]] = await Promise.all([
+    selectRangeChecks(keysetColumns(keys))
+      .where(and(where, afterCursor(params.cursor, ordering, keys)))
+      .orderBy(...keysetOrder(keys))
+      .limit(page.limit)
+      .offset(page.offset),
+    db().select({ total: count() }).from(rangeChecks).where(where),
+  ]);
+  return { ...pageOfRows(rows, params.pageSize, ordering, keys), total };
 }
 
 export async function getRangeCheckOrThrow(orgId: string, id: string) {

@@ -1,13 +1,14 @@
 // Recordings of a flight or a job (or the whole organisation), for the recordings table: name,
 // size, kind, duration when known, processing state and progress, hash and tags; filtered, sorted
-// and paged on the server.
-import { and, asc, eq, exists, ilike, isNull, or, sql, type AnyColumn, type SQL } from "drizzle-orm";
+// and paged on the server by keyset (lib/api/keyset.ts).
+import { and, count, eq, exists, ilike, isNull, or, sql, type SQL } from "drizzle-orm";
 import { z } from "zod";
 import { db } from "@/db/client";
-import { flights, jobs, recordingTags, recordings, tags, users } from "@/db/schema";
+import { flights, jobs, processingStateEnum, recordingKindEnum, recordingTags, recordings, tags, users } from "@/db/schema";
 import { listQuery } from "@/lib/api/with-org";
 import { safeText } from "@/lib/validation/common";
-import { pageOf, totalCount } from "@/lib/api/list";
+import { keysetOf, keysetPage, type SortKey } from "@/lib/api/list";
+import { afterCursor, keysetColumns, keysetOrder, pageOfRows, type KeyPart } from "@/lib/api/keyset";
 
 export const RECORDING_STATES = ["waiting", "processing", "ready", "failed"] as const;
 export const RECORDING_KINDS = ["raw_h264", "mp4", "mov", "jpeg"] as const;
@@ -51,16 +52,24 @@ export const recordingColumns = {
   tags: tagNames,
 };
 
-const SORTABLE: Record<NonNullable<RecordingListQuery["sort"]>, SQL | AnyColumn> = {
-  sequence: recordings.sequenceIndex,
-  name: sql`lower(${recordings.originalName})`,
-  size: recordings.sizeBytes,
-  kind: recordings.kind,
-  duration: recordings.durationSec,
-  state: recordings.state,
-  recordedAt: recordings.recorderModifiedAt,
-  uploadedAt: recordings.createdAt,
+const SORTABLE: Record<NonNullable<RecordingListQuery["sort"]>, SortKey> = {
+  sequence: { expr: recordings.sequenceIndex, type: "int", notNull: true },
+  name: { expr: sql`lower(${recordings.originalName})`, type: "text", notNull: true },
+  size: { expr: recordings.sizeBytes, type: "bigint", notNull: true },
+  kind: { expr: recordings.kind, type: recordingKindEnum, notNull: true },
+  duration: { expr: recordings.durationSec, type: "double precision" },
+  state: { expr: recordings.state, type: processingStateEnum, notNull: true },
+  recordedAt: { expr: recordings.recorderModifiedAt, type: "timestamptz" },
+  uploadedAt: { expr: recordings.createdAt, type: "timestamptz", notNull: true },
 };
+
+// the flight's order, then the upload time, then the id: a total order, served by
+// recordings_org_seq_idx / recordings_org_flight_idx / recordings_org_job_idx
+const DEFAULT_KEYS: KeyPart[] = [
+  { expr: recordings.sequenceIndex, dir: "asc", type: "int", notNull: true },
+  { expr: recordings.createdAt, dir: "asc", type: "timestamptz", notNull: true },
+  { expr: recordings.id, dir: "asc", type: "uuid", notNull: true },
+];
 
 /** `scope`: a further condition, e.g. a client account's clients (lib/auth/client-scope.ts). */
 export async function listRecordings(organisationId: string, q: RecordingListQuery, scope?: SQL) {
@@ -86,18 +95,22 @@ export async function listRecordings(organisationId: string, q: RecordingListQue
     const pattern = `%${text.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
     where.push(or(ilike(recordings.originalName, pattern), ilike(recordings.relativePath, pattern), eq(recordings.sha256, text.toLowerCase())));
   }
-  const sortCol = SORTABLE[q.sort ?? "sequence"];
-  const dir = q.dir === "desc" ? sql`desc nulls last` : sql`asc nulls last`;
-  const rows = await db()
-    .select({ ...recordingColumns, total: totalCount })
-    .from(recordings)
-    .innerJoin(flights, eq(flights.id, recordings.flightId))
-    .innerJoin(jobs, eq(jobs.id, recordings.jobId))
-    .leftJoin(users, eq(users.id, recordings.uploadedBy))
-    .where(and(...where))
-    // the flight's order breaks ties, then the upload time, so paging is stable
-    .orderBy(sql`${sortCol} ${dir}`, asc(recordings.sequenceIndex), asc(recordings.createdAt), asc(recordings.id))
-    .limit(pageOf(q).limit)
-    .offset(pageOf(q).offset);
-  return { items: rows.map(({ total: _t, ...r }) => r), total: rows[0]?.total ?? 0 };
+  // the sequence order is the default; asked for explicitly it is the same keys
+  const { ordering, keys } = q.sort === "sequence" && q.dir === "asc" ? { ordering: "default", keys: DEFAULT_KEYS } : keysetOf(q, SORTABLE, DEFAULT_KEYS, recordings.id);
+  const page = keysetPage(q);
+  const [rows, [{ total }]] = await Promise.all([
+    db()
+      .select({ ...recordingColumns, ...keysetColumns(keys) })
+      .from(recordings)
+      .innerJoin(flights, eq(flights.id, recordings.flightId))
+      .innerJoin(jobs, eq(jobs.id, recordings.jobId))
+      .leftJoin(users, eq(users.id, recordings.uploadedBy))
+      .where(and(...where, afterCursor(q.cursor, ordering, keys)))
+      .orderBy(...keysetOrder(keys))
+      .limit(page.limit)
+      .offset(page.offset),
+    // counted apart from the page: the page's columns (tags, names) are computed for its rows only
+    db().select({ total: count() }).from(recordings).where(and(...where)),
+  ]);
+  return { ...pageOfRows(rows, q.pageSize, ordering, keys), total };
 }

@@ -1,6 +1,7 @@
 // A job's share links as the sender sees them: state, recipients, and how often each was opened
 // and downloaded. Never the token hash or the passcode hash.
-import { and, desc, eq, sql } from "drizzle-orm";
+import { and, count as countRows, desc, eq, sql } from "drizzle-orm";
+import { afterCursor, keysetColumns, keysetOrder, pageOfRows, type KeyPart, type KeysetParams } from "@/lib/api/keyset";
 import { db } from "@/db/client";
 import { jobs, shareLinkEvents, shareLinks, users } from "@/db/schema";
 import { notFound } from "@/lib/api/errors";
@@ -54,17 +55,33 @@ function selection() {
   };
 }
 
-export async function listJobShareLinks(organisationId: string, jobId: string, now = new Date()): Promise<{ items: ShareLinkRow[]; total: number }> {
+// newest first (share_links_org_job_idx serves the order)
+const KEYS: KeyPart[] = [
+  { expr: shareLinks.createdAt, dir: "desc", type: "timestamptz", notNull: true },
+  { expr: shareLinks.id, dir: "desc", type: "uuid", notNull: true },
+];
+
+export async function listJobShareLinks(
+  organisationId: string,
+  jobId: string,
+  page: KeysetParams = { pageSize: 100 },
+  now = new Date(),
+): Promise<{ items: ShareLinkRow[]; total: number; nextCursor: string | null }> {
   const [job] = await db().select({ id: jobs.id }).from(jobs).where(and(eq(jobs.id, jobId), eq(jobs.organisationId, organisationId)));
   if (!job) throw notFound("Job not found");
-  const rows = await db()
-    .select(selection())
-    .from(shareLinks)
-    .leftJoin(users, eq(users.id, shareLinks.createdBy))
-    .where(and(eq(shareLinks.organisationId, organisationId), eq(shareLinks.jobId, jobId)))
-    .orderBy(desc(shareLinks.createdAt));
-  const items = rows.map((r) => ({ ...r, status: shareLinkStatus(r, now) }));
-  return { items, total: items.length };
+  const where = and(eq(shareLinks.organisationId, organisationId), eq(shareLinks.jobId, jobId));
+  const [rows, [{ total }]] = await Promise.all([
+    db()
+      .select({ ...selection(), ...keysetColumns(KEYS) })
+      .from(shareLinks)
+      .leftJoin(users, eq(users.id, shareLinks.createdBy))
+      .where(and(where, afterCursor(page.cursor, "default", KEYS)))
+      .orderBy(...keysetOrder(KEYS))
+      .limit(page.pageSize + 1),
+    db().select({ total: countRows() }).from(shareLinks).where(where),
+  ]);
+  const { items, nextCursor } = pageOfRows(rows, page.pageSize, "default", KEYS);
+  return { items: items.map((r) => ({ ...r, status: shareLinkStatus(r, now) })), total, nextCursor };
 }
 
 export type ShareLinkEventRow = { id: string; kind: "open" | "download" | "passcode_refused" | "media"; detail: string | null; clientAddress: string | null; userAgent: string | null; createdAt: Date };

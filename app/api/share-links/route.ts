@@ -1,4 +1,4 @@
-// GET /api/share-links?jobId=: a job's share links with opens and downloads; POST: create one
+// GET /api/share-links?jobId=[&cursor=&pageSize=]: a job's share links with opens and downloads; POST: create one
 // (the response carries the link's address once: Cairn keeps only its hash)
 import { z } from "zod";
 import { withOrg, readJson, parseQuery, created, ok } from "@/lib/api/with-org";
@@ -7,13 +7,14 @@ import { shareLinkInput } from "@/lib/sharing/share-link-input";
 import { createShareLink } from "@/lib/sharing/create-share-link";
 import { listJobShareLinks } from "@/lib/sharing/list-share-links";
 import { ApiError } from "@/lib/api/errors";
+import { keysetParams } from "@/lib/api/keyset";
 
-const query = z.object({ jobId: z.string().optional() });
+const query = keysetParams(100).extend({ jobId: z.string().optional() });
 
 export const GET = withOrg({ permission: "shares.manage" }, async ({ req, member }) => {
-  const { jobId } = parseQuery(req, query);
+  const { jobId, ...page } = parseQuery(req, query);
   if (!jobId || !z.string().uuid().safeParse(jobId).success) throw new ApiError("not_found", "Job not found");
-  return ok(await listJobShareLinks(member.organisationId, jobId));
+  return ok(await listJobShareLinks(member.organisationId, jobId, page));
 });
 
 export const POST = withOrg({ permission: "shares.manage" }, async ({ req, member }) =>
