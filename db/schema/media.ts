@@ -57,8 +57,10 @@ export const recordings = pgTable(
     ...timestamps,
   },
   (t) => [
-    index("recordings_org_flight_idx").on(t.organisationId, t.flightId, t.sequenceIndex),
-    index("recordings_org_job_idx").on(t.organisationId, t.jobId),
+    // the recordings lists' keyset order (lib/recordings/list-recordings.ts): flight order, upload time, id
+    index("recordings_org_flight_idx").on(t.organisationId, t.flightId, t.sequenceIndex, t.createdAt, t.id),
+    index("recordings_org_job_idx").on(t.organisationId, t.jobId, t.sequenceIndex, t.createdAt, t.id),
+    index("recordings_org_seq_idx").on(t.organisationId, t.sequenceIndex, t.createdAt, t.id),
     index("recordings_org_sha_idx").on(t.organisationId, t.sha256),
     index("recordings_state_idx").on(t.state),
   ],
@@ -165,5 +167,5 @@ export const playbackViews = pgTable(
     rebufferMs: integer("rebuffer_ms").notNull().default(0),
     ...timestamps,
   },
-  (t) => [uniqueIndex("playback_views_key_uq").on(t.viewKey), index("playback_views_org_recording_idx").on(t.organisationId, t.recordingId)],
+  (t) => [uniqueIndex("playback_views_key_uq").on(t.viewKey), index("playback_views_org_recording_idx").on(t.organisationId, t.recordingId, t.startedAt, t.id)],
 );

@@ -50,6 +50,8 @@ export const findings = pgTable(
   (t) => [
     index("findings_org_job_idx").on(t.organisationId, t.jobId),
     index("findings_org_recording_idx").on(t.organisationId, t.recordingId, t.startSec),
+    // the findings list's order within a recording (lib/findings/finding-view.ts)
+    index("findings_org_recording_frame_idx").on(t.organisationId, t.recordingId, t.startFrame, t.createdAt, t.id),
     index("findings_org_severity_idx").on(t.organisationId, t.severity),
   ],
 );

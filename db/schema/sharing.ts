@@ -35,7 +35,7 @@ export const shareLinks = pgTable(
     createdBy: uuid("created_by").references(() => users.id, { onDelete: "set null" }),
     ...timestamps,
   },
-  (t) => [index("share_links_org_job_idx").on(t.organisationId, t.jobId)],
+  (t) => [index("share_links_org_job_idx").on(t.organisationId, t.jobId, t.createdAt, t.id)],
 );
 
 export const shareLinkEvents = pgTable(

@@ -19,7 +19,7 @@ export const clients = pgTable(
     archivedAt: timestamp("archived_at", { withTimezone: true }),
     ...timestamps,
   },
-  (t) => [index("clients_org_name_idx").on(t.organisationId, t.name)],
+  (t) => [index("clients_org_name_idx").on(t.organisationId, t.name, t.id)],
 );
 
 export const sites = pgTable(
@@ -38,7 +38,7 @@ export const sites = pgTable(
     archivedAt: timestamp("archived_at", { withTimezone: true }),
     ...timestamps,
   },
-  (t) => [index("sites_org_client_idx").on(t.organisationId, t.clientId), index("sites_org_name_idx").on(t.organisationId, t.name)],
+  (t) => [index("sites_org_client_idx").on(t.organisationId, t.clientId), index("sites_org_name_idx").on(t.organisationId, t.name, t.id)],
 );
 
 export const jobs = pgTable(
@@ -67,7 +67,7 @@ export const jobs = pgTable(
   (t) => [
     index("jobs_org_status_idx").on(t.organisationId, t.status),
     index("jobs_org_site_idx").on(t.organisationId, t.siteId),
-    index("jobs_org_due_idx").on(t.organisationId, t.dueDate),
+    index("jobs_org_due_idx").on(t.organisationId, t.dueDate, t.id),
   ],
 );
 
@@ -89,7 +89,7 @@ export const flights = pgTable(
     archivedAt: timestamp("archived_at", { withTimezone: true }),
     ...timestamps,
   },
-  (t) => [index("flights_org_job_idx").on(t.organisationId, t.jobId), index("flights_org_date_idx").on(t.organisationId, t.flownOn)],
+  (t) => [index("flights_org_job_idx").on(t.organisationId, t.jobId, t.flownOn, t.createdAt, t.id), index("flights_org_date_idx").on(t.organisationId, t.flownOn, t.createdAt, t.id)],
 );
 
 // A client account sees only the work of the clients it is tied to here (jobs at their sites, and
