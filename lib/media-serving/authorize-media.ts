@@ -16,6 +16,7 @@ const PERMISSION_FOR: Record<MediaFile["kind"], Permission> = {
   rendition: "recordings.read",
   still: "findings.read",
   report: "findings.read",
+  evidence_package: "packages.download",
 };
 
 async function mayOpen(p: MediaPrincipal, file: MediaFile): Promise<boolean> {

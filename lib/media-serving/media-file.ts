@@ -8,7 +8,7 @@ export type MediaTarget =
 
 /** A stored file, resolved inside one organisation, with the evidence it belongs to. */
 export type MediaFile = {
-  kind: "rendition" | "still" | "report";
+  kind: "rendition" | "still" | "report" | "evidence_package";
   id: string;
   organisationId: string;
   storageKey: string;

@@ -68,6 +68,13 @@ export const MATRIX: Record<string, MatrixRow> = {
   "GET /api/custody/export": { url: (f) => `/api/custody/export?jobId=${f.jobId}`, expect: "401 403 200 200 200 404" },
   "POST /api/custody/verify": { url: () => "/api/custody/verify", expect: "401 403 200 200 200 200" },
 
+  "GET /api/evidence-packages": { url: (f) => `/api/evidence-packages?jobId=${f.jobId}`, expect: "401 403 200 200 200 404" },
+  "POST /api/evidence-packages": { url: () => "/api/evidence-packages", body: { jobId: "nope" }, expect: "401 403 403 422 422 422" },
+  "GET /api/evidence-packages/[id]": { url: () => `/api/evidence-packages/${NOWHERE}`, params: none, expect: "401 403 404 404 404 404" },
+  "GET /api/evidence-packages/[id]/download": { url: () => `/api/evidence-packages/${NOWHERE}/download`, params: none, headers: { range: "bytes=0-0" }, expect: "401 403 404 404 404 404" },
+  "HEAD /api/evidence-packages/[id]/download": { url: () => `/api/evidence-packages/${NOWHERE}/download`, params: none, expect: "401 403 404 404 404 404" },
+  "PUT /api/evidence-packages/[id]/share": { url: () => `/api/evidence-packages/${NOWHERE}/share`, params: none, body: { shareLinkId: null }, expect: "401 403 403 403 404 404" },
+
   "GET /api/finding-categories": { url: () => "/api/finding-categories", expect: "401 200 200 200 200 200" },
   "POST /api/finding-categories": { url: () => "/api/finding-categories", body: { name: "" }, expect: "401 403 403 422 422 422" },
   "POST /api/finding-categories/defaults": { url: () => "/api/finding-categories/defaults", expect: "", skip: "restores defaults for an allowed actor (idempotent write): covered by the findings API tests" },
@@ -144,6 +151,8 @@ export const MATRIX: Record<string, MatrixRow> = {
   "HEAD /api/reports/[id]/download": { url: (f) => `/api/reports/${f.reportId}/download`, params: id("reportId"), expect: "401 404 200 200 200 404" },
 
   "GET /api/s/[token]/manifest": { url: (f) => `/api/s/${f.shareToken}/manifest`, params: (f) => ({ token: f.shareToken }), expect: "200 200 200 200 200 200" },
+  "GET /api/s/[token]/package": { url: (f) => `/api/s/${f.shareToken}/package`, params: (f) => ({ token: f.shareToken }), expect: "404 404 404 404 404 404" },
+  "HEAD /api/s/[token]/package": { url: (f) => `/api/s/${f.shareToken}/package`, params: (f) => ({ token: f.shareToken }), expect: "404 404 404 404 404 404" },
   "GET /api/s/media/[grant]": { url: (f) => `/api/s/media/${f.mediaGrant}`, params: (f) => ({ grant: f.mediaGrant }), expect: "200 200 200 200 200 200" },
   "HEAD /api/s/media/[grant]": { url: (f) => `/api/s/media/${f.mediaGrant}`, params: (f) => ({ grant: f.mediaGrant }), expect: "200 200 200 200 200 200" },
 

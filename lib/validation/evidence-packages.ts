@@ -1,0 +1,18 @@
+// Asking for an evidence package (POST /api/evidence-packages) and letting a share link carry one
+// (PUT /api/evidence-packages/:id/share). Browser-safe: the job page's form validates with the same schema.
+import { z } from "zod";
+import { optionalText } from "./common";
+
+export const PACKAGE_MAX_CHOSEN_RECORDINGS = 1000;
+
+export const packageRequestInput = z
+  .object({
+    jobId: z.string().uuid("Unknown job"),
+    flightId: z.string().uuid("Unknown flight").nullish(),
+    recordingIds: z.array(z.string().uuid("Unknown recording")).min(1, "Choose at least one recording").max(PACKAGE_MAX_CHOSEN_RECORDINGS, `At most ${PACKAGE_MAX_CHOSEN_RECORDINGS} recordings`).nullish(),
+    purpose: optionalText(300),
+  })
+  .strict();
+export type PackageRequestInput = z.infer<typeof packageRequestInput>;
+
+export const packageShareInput = z.object({ shareLinkId: z.string().uuid("Unknown share link").nullable() }).strict();
