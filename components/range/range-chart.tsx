@@ -11,6 +11,8 @@ import { CHART_DIMENSIONS, CHART_DIMENSION_LABELS, type ChartDimension, type Ran
 import { LINK_EVENTS, LINK_EVENT_META, type LinkEvent } from "@/lib/range-checks/link-events";
 import { formatMetresIn } from "@/lib/range-checks/format-figures";
 import type { DisplayUnits } from "@/lib/validation/range-checks";
+import { Caution } from "@/components/ui/caution";
+import { LOCAL_RULES_CAUTION, RADIO_RANGE_CAUTION } from "@/lib/geo";
 import { LinkEventMark } from "./link-event-mark";
 
 // colour repeats what shape and label already say (WCAG 2.2 SC 1.4.1; docs/look.md)
@@ -66,7 +68,7 @@ export function RangeChart({ flightId, flightLabel, units }: { flightId: string 
           <figure className="rounded-md border border-line bg-white p-2 dark:bg-paper-2" data-testid="range-chart">
             <div className="h-80 w-full" aria-hidden>
               <ResponsiveContainer width="100%" height="100%">
-                <ScatterChart margin={{ top: 16, right: 48, bottom: 24, left: 16 }}>
+                <ScatterChart margin={{ top: 16, right: 48, bottom: 24, left: 16 }} accessibilityLayer={false}>
                   <CartesianGrid strokeDasharray="3 3" />
                   <XAxis
                     type="number"
@@ -104,6 +106,12 @@ export function RangeChart({ flightId, flightLabel, units }: { flightId: string 
               holds the same figures.
             </figcaption>
           </figure>
+          {/* the chart shows distances to the aircraft: the radio-range caution sits beside it (docs/look.md, "Cautions") */}
+          <div className="flex flex-col gap-2" data-testid="range-chart-cautions">
+            {[RADIO_RANGE_CAUTION, LOCAL_RULES_CAUTION].map((c) => (
+              <Caution key={c.id} summary={c.summary} detail={c.detail} sources={[...c.sources]} />
+            ))}
+          </div>
           <div className="overflow-x-auto rounded-md border border-line">
             <table className="tabular w-full border-collapse text-sm" data-testid="range-chart-table">
               <caption className="sr-only">Slant range per link event and {CHART_DIMENSION_LABELS[by].toLowerCase()}</caption>

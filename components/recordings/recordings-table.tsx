@@ -2,12 +2,15 @@
 // The recordings of a flight or a job: name, size, kind, duration when known, processing state
 // with live progress (the list refreshes every few seconds while anything is waiting or being
 // processed), hash, tags (add/remove), and the original's download. Filters and sorting run on
-// the server (GET /api/recordings).
+// the server (GET /api/recordings). On a narrow screen name and state stay in the row; the rest
+// moves into the row's details (DataTable in components/ui/resource-table.tsx).
 import { keepPreviousData, useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
 import Link from "next/link";
 import { useState } from "react";
 import { fetchJson } from "@/components/fetch-json";
+import type { ColumnDef, SortingState } from "@tanstack/react-table";
 import { EmptyState } from "@/components/ui/empty-state";
+import { DataTable, Pager } from "@/components/ui/resource-table";
 import { HashText } from "@/components/ui/hash-text";
 import { formatBytes } from "@/lib/uploads/format-bytes";
 import { formatClockTime } from "@/lib/timecode/format-clock-time";
@@ -179,28 +182,6 @@ export function RecordingsTable({
   const total = query.data?.total ?? 0;
   const filtered = Boolean(q || state || kind || tag);
 
-  const header = (label: string, k: SortKey | null, className = "") => {
-    const active = k && sort.key === k;
-    return (
-      <th scope="col" className={`border-b border-line px-3 py-2 text-left font-medium ${className}`} aria-sort={active ? (sort.dir === "asc" ? "ascending" : "descending") : undefined}>
-        {k ? (
-          <button
-            type="button"
-            className="inline-flex items-center gap-1 hover:underline"
-            onClick={() => {
-              setSort(active ? { key: k, dir: sort.dir === "asc" ? "desc" : "asc" } : { key: k, dir: "asc" });
-              setPage(1);
-            }}
-          >
-            {label}
-            <span aria-hidden className="text-xs">{active ? (sort.dir === "asc" ? "▲" : "▼") : "↕"}</span>
-          </button>
-        ) : (
-          label
-        )}
-      </th>
-    );
-  };
   const select = (label: string, value: string, set: (v: string) => void, options: [string, string][]) => (
     <label className="flex flex-col gap-1 text-sm">
       <span className="font-medium">{label}</span>
@@ -221,6 +202,71 @@ export function RecordingsTable({
       </select>
     </label>
   );
+
+  const sorting: SortingState = [{ id: sort.key, desc: sort.dir === "desc" }];
+  const jobView = Boolean(jobId && !flightId);
+  const offset = (page - 1) * pageSize;
+  const columns: ColumnDef<RecordingRow, unknown>[] = [
+    // a flight's page numbers its files in the card's order; a job's page numbers the rows of the list
+    // (the flight column then says which file of which flight a row is)
+    jobView
+      ? { id: "row", header: "#", enableSorting: false, meta: { className: "w-10 text-ink-2" }, cell: (c) => offset + c.row.index + 1 }
+      : { id: "sequence", header: "#", meta: { className: "w-10 text-ink-2" }, cell: (c) => c.row.original.sequenceIndex + 1 },
+    {
+      id: "name",
+      header: "Name",
+      cell: ({ row: { original: r } }) => (
+        <>
+          <Link href={`/recordings/${r.id}`} className="font-medium break-all text-lake underline-offset-2 hover:underline">
+            {r.originalName}
+          </Link>
+          {r.relativePath && r.relativePath !== r.originalName && <span className="block font-mono text-xs break-all text-ink-2">{r.relativePath}</span>}
+          {r.duplicateOfId && <span className="block text-xs text-ink-2">Same bytes as a recording already stored; no second copy kept</span>}
+        </>
+      ),
+    },
+    ...(jobView
+      ? [
+          {
+            id: "flight",
+            header: "Flight",
+            enableSorting: false,
+            meta: { hideBelow: "md", className: "whitespace-nowrap" },
+            cell: (c) => (
+              <span className="font-mono text-xs">
+                {c.row.original.flownOn} · file {c.row.original.sequenceIndex + 1}
+              </span>
+            ),
+          } satisfies ColumnDef<RecordingRow, unknown>,
+        ]
+      : []),
+    { id: "kind", header: "Kind", meta: { hideBelow: "lg", className: "whitespace-nowrap" }, cell: (c) => KIND_LABELS[c.row.original.kind] },
+    { id: "size", header: "Size", meta: { hideBelow: "sm", className: "text-right whitespace-nowrap" }, cell: (c) => formatBytes(c.row.original.sizeBytes) },
+    {
+      id: "duration",
+      header: "Duration",
+      meta: { hideBelow: "md", className: "text-right font-mono whitespace-nowrap" },
+      cell: (c) => (c.row.original.durationSec != null ? formatClockTime(c.row.original.durationSec) : "—"),
+    },
+    { id: "state", header: "State", cell: (c) => <RecordingState row={c.row.original} /> },
+    { id: "sha256", header: "SHA-256", enableSorting: false, meta: { hideBelow: "lg", className: "whitespace-nowrap" }, cell: (c) => <HashText value={c.row.original.sha256} /> },
+    { id: "tags", header: "Tags", enableSorting: false, meta: { hideBelow: "xl" }, cell: (c) => <TagCell row={c.row.original} canTag={canTag} onChange={refresh} /> },
+    ...(canDownload
+      ? [
+          {
+            id: "original",
+            header: "Original",
+            enableSorting: false,
+            meta: { hideBelow: "xl", className: "whitespace-nowrap" },
+            cell: (c) => (
+              <a href={`/api/recordings/${c.row.original.id}/original`} download className="text-lake underline">
+                Download original
+              </a>
+            ),
+          } satisfies ColumnDef<RecordingRow, unknown>,
+        ]
+      : []),
+  ];
 
   return (
     <div className="flex flex-col gap-3" data-testid="recordings-table">
@@ -265,80 +311,22 @@ export function RecordingsTable({
       ) : total === 0 && !filtered ? (
         <EmptyState {...empty} />
       ) : (
-        <div className="overflow-x-auto rounded-md border border-line">
-          <table className="tabular w-full border-collapse text-sm">
-            <thead className="bg-paper-2">
-              <tr>
-                {header("#", "sequence", "w-10")}
-                {header("Name", "name")}
-                {jobId && !flightId && header("Flight", null)}
-                {header("Kind", "kind")}
-                {header("Size", "size", "text-right")}
-                {header("Duration", "duration", "text-right")}
-                {header("State", "state")}
-                {header("SHA-256", null)}
-                {header("Tags", null)}
-                {canDownload && header("Original", null)}
-              </tr>
-            </thead>
-            <tbody>
-              {rows.length === 0 ? (
-                <tr>
-                  <td colSpan={10} className="px-3 py-6 text-center text-ink-2">
-                    No recording matches these filters.
-                  </td>
-                </tr>
-              ) : (
-                rows.map((r) => (
-                  <tr key={r.id} data-recording-id={r.id} className="border-b border-line/60 align-top last:border-0 hover:bg-paper-2/60">
-                    <td className="px-3 py-2 text-ink-2">{r.sequenceIndex + 1}</td>
-                    <td className="px-3 py-2">
-                      <Link href={`/recordings/${r.id}`} className="font-medium break-all text-lake underline-offset-2 hover:underline">
-                        {r.originalName}
-                      </Link>
-                      {r.relativePath && r.relativePath !== r.originalName && <span className="block font-mono text-xs break-all text-ink-2">{r.relativePath}</span>}
-                      {r.duplicateOfId && <span className="block text-xs text-ink-2">Same bytes as a recording already stored; no second copy kept</span>}
-                    </td>
-                    {jobId && !flightId && <td className="px-3 py-2 font-mono text-xs whitespace-nowrap">{r.flownOn}</td>}
-                    <td className="px-3 py-2 whitespace-nowrap">{KIND_LABELS[r.kind]}</td>
-                    <td className="px-3 py-2 text-right whitespace-nowrap">{formatBytes(r.sizeBytes)}</td>
-                    <td className="px-3 py-2 text-right font-mono whitespace-nowrap">{r.durationSec != null ? formatClockTime(r.durationSec) : "—"}</td>
-                    <td className="px-3 py-2">
-                      <RecordingState row={r} />
-                    </td>
-                    <td className="px-3 py-2 whitespace-nowrap">
-                      <HashText value={r.sha256} />
-                    </td>
-                    <td className="px-3 py-2">
-                      <TagCell row={r} canTag={canTag} onChange={refresh} />
-                    </td>
-                    {canDownload && (
-                      <td className="px-3 py-2 whitespace-nowrap">
-                        <a href={`/api/recordings/${r.id}/original`} download className="text-lake underline">
-                          Download original
-                        </a>
-                      </td>
-                    )}
-                  </tr>
-                ))
-              )}
-            </tbody>
-          </table>
-        </div>
+        <DataTable<RecordingRow>
+          data={rows}
+          columns={columns}
+          caption="Recordings"
+          getRowId={(r) => r.id}
+          rowAttributes={(r) => ({ "data-recording-id": r.id })}
+          sorting={sorting}
+          onSortingChange={(u) => {
+            const next = typeof u === "function" ? u(sorting) : u;
+            setSort(next[0] ? { key: next[0].id as SortKey, dir: next[0].desc ? "desc" : "asc" } : { key: "sequence", dir: "asc" });
+            setPage(1);
+          }}
+          noMatch="No recording matches these filters."
+        />
       )}
-      {total > pageSize && (
-        <nav className="flex items-center gap-2 text-sm" aria-label="Pages">
-          <button type="button" className="rounded border border-line px-3 py-1 disabled:opacity-40" disabled={page <= 1} onClick={() => setPage(page - 1)}>
-            Previous
-          </button>
-          <span className="tabular">
-            Page {page} of {Math.ceil(total / pageSize)}
-          </span>
-          <button type="button" className="rounded border border-line px-3 py-1 disabled:opacity-40" disabled={page * pageSize >= total} onClick={() => setPage(page + 1)}>
-            Next
-          </button>
-        </nav>
-      )}
+      <Pager page={page} pages={Math.max(1, Math.ceil(total / pageSize))} onPage={setPage} />
     </div>
   );
 }

@@ -6,7 +6,9 @@
 import { useState } from "react";
 import { useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
 import { Button } from "@/components/ui/button";
+import type { ColumnDef } from "@tanstack/react-table";
 import { EmptyState } from "@/components/ui/empty-state";
+import { DataTable } from "@/components/ui/resource-table";
 import { fetchJson } from "@/components/fetch-json";
 import { SHARE_STATUS_LABELS, type ShareLinkStatus } from "@/lib/sharing/share-link-status";
 import { SHARE_SCOPE_LABELS, type ShareScope } from "@/lib/sharing/share-link-input";
@@ -69,6 +71,66 @@ function RevokeButton({ link, jobId }: { link: ShareLinkListItem; jobId: string 
   );
 }
 
+function columns(jobId: string): ColumnDef<ShareLinkListItem, unknown>[] {
+  return [
+    {
+      id: "link",
+      header: "Link",
+      cell: ({ row: { original: l } }) => (
+        <>
+          <span className="font-medium">{l.label}</span>
+          <span className="block text-xs text-ink-2">{l.recipientEmails.length ? `To ${l.recipientEmails.join(", ")}` : "No recipients mailed"}</span>
+          <span className="block text-xs text-ink-2">
+            {l.hasPasscode ? "Passcode" : "No passcode"} · {l.allowOriginals ? "originals downloadable" : "no originals"}
+            {l.createdByName ? ` · by ${l.createdByName}, ${day(l.createdAt)}` : ""}
+          </span>
+        </>
+      ),
+    },
+    { id: "shares", header: "Shares", meta: { hideBelow: "md" }, cell: (c) => SHARE_SCOPE_LABELS[c.row.original.scope].label },
+    {
+      id: "state",
+      header: "State",
+      cell: ({ row: { original: l } }) => (
+        <>
+          <StatusWord status={l.status} />
+          {l.lockedUntil && new Date(l.lockedUntil) > new Date() && <span className="mt-1 block text-xs text-warn">Passcode locked after wrong tries</span>}
+        </>
+      ),
+    },
+    {
+      id: "expires",
+      header: "Expires",
+      meta: { hideBelow: "sm", className: "font-mono text-xs whitespace-nowrap" },
+      cell: (c) => (c.row.original.revokedAt ? `revoked ${day(c.row.original.revokedAt)}` : day(c.row.original.expiresAt)),
+    },
+    {
+      id: "opens",
+      header: "Opens",
+      meta: { hideBelow: "lg", className: "text-right font-mono" },
+      cell: (c) => <span data-testid="share-opens">{c.row.original.opens}</span>,
+    },
+    {
+      id: "downloads",
+      header: "Downloads",
+      meta: { hideBelow: "lg", className: "text-right font-mono" },
+      cell: (c) => <span data-testid="share-downloads">{c.row.original.downloads}</span>,
+    },
+    {
+      id: "lastOpened",
+      header: "Last opened",
+      meta: { hideBelow: "lg", className: "font-mono text-xs whitespace-nowrap" },
+      cell: (c) => (c.row.original.lastOpenedAt ? `${c.row.original.lastOpenedAt.slice(0, 16).replace("T", " ")} UTC` : "never"),
+    },
+    {
+      id: "actions",
+      header: () => <span className="sr-only">Revoke</span>,
+      meta: { label: "Revoke", className: "text-right" },
+      cell: (c) => <RevokeButton link={c.row.original} jobId={jobId} />,
+    },
+  ];
+}
+
 export function JobShareLinksPanel({ jobId, canManage }: { jobId: string; canManage: boolean }) {
   const [creating, setCreating] = useState(false);
   const list = useQuery({
@@ -89,53 +151,13 @@ export function JobShareLinksPanel({ jobId, canManage }: { jobId: string; canMan
       {list.error && <p role="alert" className="text-sm text-bad">{list.error.message}</p>}
       {list.data && list.data.total === 0 && <EmptyState title="Nothing shared yet" next="Share a recording, chosen findings, a report version or the whole job with the client." />}
       {list.data && list.data.total > 0 && (
-        <div className="overflow-x-auto rounded-md border border-line">
-          <table className="w-full text-left text-sm">
-            <caption className="sr-only">Share links of this job</caption>
-            <thead className="bg-paper-2 text-xs uppercase tracking-wide text-ink-2">
-              <tr>
-                <th className="px-3 py-2">Link</th>
-                <th className="px-3 py-2">Shares</th>
-                <th className="px-3 py-2">State</th>
-                <th className="px-3 py-2">Expires</th>
-                <th className="px-3 py-2 text-right">Opens</th>
-                <th className="px-3 py-2 text-right">Downloads</th>
-                <th className="px-3 py-2">Last opened</th>
-                <th className="px-3 py-2" />
-              </tr>
-            </thead>
-            <tbody>
-              {list.data.items.map((l) => (
-                <tr key={l.id} className="border-t border-line align-top" data-testid="share-link-row">
-                  <td className="px-3 py-2">
-                    <span className="font-medium">{l.label}</span>
-                    <span className="block text-xs text-ink-2">{l.recipientEmails.length ? `To ${l.recipientEmails.join(", ")}` : "No recipients mailed"}</span>
-                    <span className="block text-xs text-ink-2">
-                      {l.hasPasscode ? "Passcode" : "No passcode"} · {l.allowOriginals ? "originals downloadable" : "no originals"}
-                      {l.createdByName ? ` · by ${l.createdByName}, ${day(l.createdAt)}` : ""}
-                    </span>
-                  </td>
-                  <td className="px-3 py-2">{SHARE_SCOPE_LABELS[l.scope].label}</td>
-                  <td className="px-3 py-2">
-                    <StatusWord status={l.status} />
-                    {l.lockedUntil && new Date(l.lockedUntil) > new Date() && <span className="mt-1 block text-xs text-warn">Passcode locked after wrong tries</span>}
-                  </td>
-                  <td className="px-3 py-2 font-mono text-xs tabular">{l.revokedAt ? `revoked ${day(l.revokedAt)}` : day(l.expiresAt)}</td>
-                  <td className="px-3 py-2 text-right font-mono tabular" data-testid="share-opens">
-                    {l.opens}
-                  </td>
-                  <td className="px-3 py-2 text-right font-mono tabular" data-testid="share-downloads">
-                    {l.downloads}
-                  </td>
-                  <td className="px-3 py-2 font-mono text-xs tabular">{l.lastOpenedAt ? l.lastOpenedAt.slice(0, 16).replace("T", " ") : "never"}</td>
-                  <td className="px-3 py-2 text-right">
-                    <RevokeButton link={l} jobId={jobId} />
-                  </td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
-        </div>
+        <DataTable<ShareLinkListItem>
+          data={list.data.items}
+          columns={columns(jobId)}
+          caption="Share links of this job"
+          getRowId={(l) => l.id}
+          rowAttributes={() => ({ "data-testid": "share-link-row" })}
+        />
       )}
       {creating && <ShareLinkForm jobId={jobId} onClose={() => setCreating(false)} />}
     </div>

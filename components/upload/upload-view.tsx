@@ -184,7 +184,7 @@ export function UploadView({
             <aside role="note" className="rounded-md border border-line bg-paper-2/60 px-3 py-2 text-sm">
               <span aria-hidden className="mr-1">↻</span>
               Connection dropped or page reloaded? Add the same files again from the same folder: each one continues from where it stopped. Pause, resume and retry
-              each file with the buttons beside it. Sizes on Cairn's pages are in decimal units: 1 MB is 1,000,000 bytes, as SD cards are labelled.
+              each file with the buttons beside it. Sizes on Cairn&rsquo;s pages are in decimal units: 1 MB is 1,000,000 bytes, as SD cards are labelled.
             </aside>
             <RecordingUploader jobId={job.jobId} flightId={flight.id} maxFileBytes={maxFileBytes} onReport={onReport} />
             <UploadOutcomeList reports={reportList} />
