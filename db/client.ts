@@ -2,6 +2,7 @@
 // Next's hot reload in development does not open a new pool on every change.
 import { drizzle, type PostgresJsDatabase } from "drizzle-orm/postgres-js";
 import postgres from "postgres";
+import { z } from "zod";
 import * as schema from "./schema";
 import { env } from "@/lib/config/env";
 
@@ -9,13 +10,39 @@ export type Db = PostgresJsDatabase<typeof schema>;
 type Tx = Parameters<Parameters<Db["transaction"]>[0]>[0];
 export type DbOrTx = Db | Tx;
 
-const g = globalThis as unknown as { __cairnSql?: postgres.Sql; __cairnDb?: Db };
+type QueryObserver = (query: string, parameters: unknown[]) => void;
+const g = globalThis as unknown as { __cairnSql?: postgres.Sql; __cairnDb?: Db; __cairnQueryObserver?: QueryObserver };
+
+/**
+ * Connections per process (DATABASE_POOL_MAX, default 10). With N web and M worker processes the
+ * database sees up to (N + M) x this many, which must stay under its max_connections (or the pooler's
+ * limit) with room for migrations and administration: README, "Running several instances".
+ */
+export function poolSize(value = process.env.DATABASE_POOL_MAX): number {
+  const parsed = z.coerce.number().int().min(1).max(500).safeParse(value === undefined || value === "" ? 10 : value);
+  if (!parsed.success) throw new Error(`DATABASE_POOL_MAX must be a whole number from 1 to 500, got ${JSON.stringify(value)}`);
+  return parsed.data;
+}
 
 export function sqlClient(): postgres.Sql {
   if (!g.__cairnSql) {
-    g.__cairnSql = postgres(env().DATABASE_URL, { max: 10, idle_timeout: 30, onnotice: () => {} });
+    g.__cairnSql = postgres(env().DATABASE_URL, {
+      max: poolSize(),
+      idle_timeout: 30,
+      onnotice: () => {},
+      // tests read the SQL a function sends (the EXPLAIN tests of the lists); nothing is kept otherwise
+      debug: (_connection, query, parameters) => g.__cairnQueryObserver?.(query, parameters as unknown[]),
+    });
   }
   return g.__cairnSql;
+}
+
+/** Calls `observer` with every query this process sends until the returned function is called. */
+export function observeQueries(observer: QueryObserver): () => void {
+  g.__cairnQueryObserver = observer;
+  return () => {
+    if (g.__cairnQueryObserver === observer) g.__cairnQueryObserver = undefined;
+  };
 }
 
 export function db(): Db {

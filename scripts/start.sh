@@ -32,4 +32,4 @@ export APP_URL="${APP_URL:-http://localhost:${PORT}}"
 export NEXTAUTH_URL="${NEXTAUTH_URL:-$APP_URL}"
 # concurrently -k: when one stops, the other is stopped too; Ctrl-C reaches both
 npx concurrently -k -n web,worker -c cyan,magenta \
-  "npx next start -p ${PORT} -H 127.0.0.1" "npx tsx worker/main.ts"
+  "npx next start -p ${PORT} -H ${CAIRN_LISTEN_HOST:-127.0.0.1}" "npx tsx worker/main.ts"
