@@ -57,7 +57,7 @@ export function SignInForm() {
             // 429 from lib/auth/sign-in-limit-gate.ts: this address waits; the e-mail link still works
             if (res?.error === "rate_limited") setError("Too many tries from here for this account. Wait a few minutes, or choose “E-mail me a link”.");
             else if (!res || res.error) setError("E-mail or password not recognised.");
-            else router.replace(search.get("callbackUrl") ?? "/jobs");
+            else router.replace(search.get("callbackUrl") ?? "/today");
           })}
         >
           <Field label="E-mail" type="email" autoComplete="username" {...pw.register("email")} error={pw.formState.errors.email?.message} />
@@ -71,7 +71,7 @@ export function SignInForm() {
           className="flex flex-col gap-4"
           onSubmit={link.handleSubmit(async (v) => {
             setError(null);
-            const res = await signIn("email", { email: v.email, redirect: false, callbackUrl: "/jobs" });
+            const res = await signIn("email", { email: v.email, redirect: false, callbackUrl: "/today" });
             if (res?.error === "rate_limited") setError("Too many links asked for from here. Wait a while, then ask again.");
             else router.push("/sign-in/check-mail");
           })}

@@ -1,194 +1,286 @@
 "use client";
-// The custody log of a recording, a job or the whole organisation: every event in chain order with
-// who, when, from where and its hash; a "Verify chain" action that recomputes the organisation's
-// whole chain and names the first broken event; exports as CSV and JSON.
-// Embed: <CustodyLogPanel recordingId={id} /> or <CustodyLogPanel jobId={id} /> (custody.read).
-import { useState } from "react";
-import { useMutation, useQuery } from "@tanstack/react-query";
-import { Button } from "@/components/ui/button";
+// The custody log of a recording, a job or the whole organisation: newest first by default, filtered
+// by recording, kind of event, person and date, one keyset page at a time (GET /api/custody), on the
+// shared table (components/ui/resource-table.tsx, DataTable), with everything in plain words. The
+// filters live in the address (?eventType=…&actor=…&from=…&to=…&order=…&recordingId=…), so a filtered
+// log can be linked to. Verify and export: custody-chain-check.tsx.
+// Embed: <CustodyLogPanel recordingId={id} /> or <CustodyLogPanel jobId={id} /> or <CustodyLogPanel /> (custody.read).
+import { useCallback, useMemo, useState } from "react";
+import { useSearchParams } from "next/navigation";
+import { keepPreviousData, useQuery } from "@tanstack/react-query";
+import type { ColumnDef } from "@tanstack/react-table";
 import { HashText } from "@/components/ui/hash-text";
 import { EmptyState } from "@/components/ui/empty-state";
+import { DataTable } from "@/components/ui/resource-table";
 import { fetchJson } from "@/components/fetch-json";
-import { custodyEventLabel } from "./custody-event-labels";
+import type { CustodyListItem } from "@/lib/custody/list-custody-events";
+import { CUSTODY_EVENT_LABELS, custodyEventLabel, custodyPurposeLabel, describeCustodySubject } from "./custody-event-labels";
+import { CustodyChainCheck } from "./custody-chain-check";
 
-type EventRow = {
-  id: string;
-  seq: number;
-  eventType: string;
-  evidenceType: string;
-  evidenceId: string | null;
-  originalSha256: string | null;
-  actorUserId: string | null;
-  actorName: string | null;
-  actorRole: string | null;
-  actorShareLinkId: string | null;
-  occurredAt: string;
-  clientAddress: string | null;
-  userAgent: string | null;
-  storageLocation: string | null;
-  purpose: string | null;
-  tool: string | null;
-  outputSha256: string | null;
-  hash: string;
-};
-type Anchor = { checkpoints: number; number: number; headSeq: number; signedAt: string; stampedAt: string | null; keyId: string; unanchored: number; oldestUnanchoredAt: string | null; stale: boolean } | null;
-type CheckpointRef = { number: number; headSeq: number; signedAt: string; stampedAt: string | null };
-type Verification =
-  | { ok: true; count: number; headHash: string; headSeq: number; verifiedAt: string; anchor: Anchor }
-  | { ok: false; count: number; reason: string; explanation: string; brokenAt: { seq: number; id: string; eventType: string; evidenceType: string; evidenceId: string | null; occurredAt: string } | null; checkpoint?: CheckpointRef; verifiedAt: string };
+/** Events per page (the API serves at most 200). */
+export const CUSTODY_PAGE_SIZE = 50;
 
-const PAGE_SIZE = 100;
-const when = (iso: string) => iso.replace("T", " ").replace("Z", " UTC");
+type Answer = { items: CustodyListItem[]; total: number; nextCursor: string | null };
+type Choices = { people: { userId: string; name: string; role: string }[]; recordings: { id: string; name: string; createdAt: string }[] };
+type Filters = { eventType: string; actor: string; from: string; to: string; order: "newest" | "oldest"; recordingId: string };
 
-function actorOf(e: EventRow): string {
+const NO_FILTERS: Filters = { eventType: "", actor: "", from: "", to: "", order: "newest", recordingId: "" };
+const when = (iso: string) => iso.replace("T", " ").replace(/\.\d+Z$|Z$/, "");
+const ROLE_WORD: Record<string, string> = { owner: "owner", pilot: "pilot", reviewer: "reviewer", client: "client" };
+
+function actorOf(e: CustodyListItem): string {
   if (e.actorShareLinkId) return "Client, through a share link";
-  if (e.actorName) return `${e.actorName}${e.actorRole ? ` (${e.actorRole})` : ""}`;
-  if (e.actorUserId) return `Former member${e.actorRole ? ` (${e.actorRole})` : ""}`;
+  const role = e.actorRole ? ` (${ROLE_WORD[e.actorRole] ?? e.actorRole})` : "";
+  if (e.actorName) return `${e.actorName}${role}`;
+  if (e.actorUserId) return `Former member${role}`;
   return "Cairn (system)";
 }
 
+function readFilters(p: URLSearchParams | null): Filters {
+  if (!p) return NO_FILTERS;
+  return {
+    eventType: p.get("eventType") ?? "",
+    actor: p.get("actor") ?? "",
+    from: p.get("from") ?? "",
+    to: p.get("to") ?? "",
+    order: p.get("order") === "oldest" ? "oldest" : "newest",
+    recordingId: p.get("recordingId") ?? "",
+  };
+}
+
+function writeFilters(f: Filters) {
+  const p = new URLSearchParams(window.location.search);
+  for (const [k, v] of Object.entries(f)) {
+    if (v && !(k === "order" && v === "newest")) p.set(k, v);
+    else p.delete(k);
+  }
+  const qs = p.toString();
+  window.history.replaceState(window.history.state, "", `${window.location.pathname}${qs ? `?${qs}` : ""}${window.location.hash}`);
+}
+
+const inputClass = "min-h-10 rounded-md border border-line bg-white px-2 text-sm text-ink dark:bg-paper-2";
+
 export function CustodyLogPanel({ recordingId, jobId }: { recordingId?: string; jobId?: string }) {
-  const [page, setPage] = useState(1);
-  const filter = recordingId ? `recordingId=${recordingId}` : jobId ? `jobId=${jobId}` : "";
+  // read through Next (not window) so the server's HTML and the browser's first render agree
+  const search = useSearchParams();
+  const [filters, setFilters] = useState<Filters>(() => readFilters(search ? new URLSearchParams(search.toString()) : null));
+  // the cursors that opened each page so far: [undefined] is the first page
+  const [cursors, setCursors] = useState<(string | undefined)[]>([undefined]);
+  const [brokenId, setBrokenId] = useState<string | null>(null);
+  const pageIndex = cursors.length - 1;
+
+  const scope = recordingId ? `recordingId=${recordingId}` : jobId ? `jobId=${jobId}` : "";
+  const params = new URLSearchParams();
+  if (recordingId) params.set("recordingId", recordingId);
+  else if (filters.recordingId) params.set("recordingId", filters.recordingId);
+  if (jobId && !params.has("recordingId")) params.set("jobId", jobId);
+  if (filters.eventType) params.set("eventType", filters.eventType);
+  if (filters.actor) params.set("actor", filters.actor);
+  if (filters.from) params.set("from", filters.from);
+  if (filters.to) params.set("to", filters.to);
+  params.set("order", filters.order);
+  params.set("pageSize", String(CUSTODY_PAGE_SIZE));
+  const cursor = cursors[pageIndex];
+  if (cursor) params.set("cursor", cursor);
+
   const list = useQuery({
-    queryKey: ["custody", filter, page],
-    queryFn: () => fetchJson<{ items: EventRow[]; total: number }>(`/api/custody?${filter}&page=${page}&pageSize=${PAGE_SIZE}`),
+    queryKey: ["custody", params.toString()],
+    queryFn: () => fetchJson<Answer>(`/api/custody?${params}`),
+    placeholderData: keepPreviousData,
   });
-  const verify = useMutation({ mutationFn: () => fetchJson<Verification>("/api/custody/verify", { method: "POST" }) });
-  const result = verify.data;
-  const brokenId = result && !result.ok ? (result.brokenAt?.id ?? null) : null;
-  const pages = Math.max(1, Math.ceil((list.data?.total ?? 0) / PAGE_SIZE));
+  const choices = useQuery({
+    queryKey: ["custody-filters", jobId ?? ""],
+    queryFn: () => fetchJson<Choices>(`/api/custody/filters${jobId ? `?jobId=${jobId}` : ""}`),
+    staleTime: 60_000,
+  });
+
+  const change = (patch: Partial<Filters>) => {
+    const next = { ...filters, ...patch };
+    setFilters(next);
+    setCursors([undefined]);
+    writeFilters(next);
+  };
+  const filtered = filters.eventType || filters.actor || filters.from || filters.to || filters.recordingId;
+  const onBroken = useCallback((id: string | null) => setBrokenId(id), []);
+
+  const columns = useMemo<ColumnDef<CustodyListItem, unknown>[]>(
+    () => [
+      {
+        id: "when",
+        header: "When (UTC)",
+        cell: ({ row: { original: e } }) => <span className="whitespace-nowrap font-mono text-xs">{when(e.occurredAt)}</span>,
+      },
+      {
+        id: "event",
+        header: "Event",
+        cell: ({ row: { original: e } }) => (
+          <>
+            <span className="font-medium">{custodyEventLabel(e.eventType)}</span>
+            {e.id === brokenId && <span className="ml-1 text-xs font-semibold text-bad">Broken here</span>}
+            <span className="block text-xs text-ink-2">{describeCustodySubject(e)}</span>
+          </>
+        ),
+      },
+      {
+        id: "who",
+        header: "Who, from where",
+        meta: { hideBelow: "md" },
+        cell: ({ row: { original: e } }) => (
+          <>
+            {actorOf(e)}
+            {(e.clientAddress || e.userAgent) && (
+              <span className="block max-w-[16rem] truncate text-xs text-ink-2" title={e.userAgent ?? undefined}>
+                {e.clientAddress ?? "address unknown"}
+                {e.userAgent ? ` · ${e.userAgent}` : ""}
+              </span>
+            )}
+          </>
+        ),
+      },
+      {
+        id: "detail",
+        header: "Purpose and detail",
+        meta: { hideBelow: "lg" },
+        cell: ({ row: { original: e } }) => (
+          <>
+            {custodyPurposeLabel(e.purpose) ?? <span className="text-ink-2">—</span>}
+            {!recordingId && !jobId && e.jobTitle && <span className="block text-xs text-ink-2">Job: {e.jobTitle}</span>}
+            {e.tool && <span className="block font-mono text-xs text-ink-2">{e.tool}</span>}
+            {e.originalSha256 && (
+              <span className="block text-xs">
+                {e.evidenceType === "report" ? "report PDF" : "original"} SHA-256 <HashText value={e.originalSha256} />
+              </span>
+            )}
+          </>
+        ),
+      },
+      {
+        id: "seq",
+        header: "Event no.",
+        meta: { hideBelow: "sm", label: "Event number in the chain" },
+        cell: ({ row: { original: e } }) => <span className="font-mono">{e.seq}</span>,
+      },
+      {
+        id: "hash",
+        header: "Hash",
+        meta: { hideBelow: "xl" },
+        cell: ({ row: { original: e } }) => <HashText value={e.hash} label="Event hash" />,
+      },
+    ],
+    [brokenId, recordingId, jobId],
+  );
+
+  const data = list.data;
+  const first = pageIndex * CUSTODY_PAGE_SIZE + 1;
+  const last = pageIndex * CUSTODY_PAGE_SIZE + (data?.items.length ?? 0);
+  const newerLabel = filters.order === "newest" ? "Newer events" : "Earlier events";
+  const olderLabel = filters.order === "newest" ? "Older events" : "Later events";
 
   return (
-    <div className="flex flex-col gap-3" data-testid="custody-log">
-      <div className="flex flex-wrap items-center gap-2">
-        <Button onClick={() => verify.mutate()} busy={verify.isPending}>
-          Verify chain
-        </Button>
-        <a className="inline-flex min-h-10 items-center rounded-md border border-line px-3 text-sm hover:bg-paper-2" href={`/api/custody/export?format=csv${filter ? `&${filter}` : ""}`} download>
-          Export CSV
-        </a>
-        <a className="inline-flex min-h-10 items-center rounded-md border border-line px-3 text-sm hover:bg-paper-2" href={`/api/custody/export?format=json${filter ? `&${filter}` : ""}`} download>
-          Export JSON
-        </a>
-        <p className="text-xs text-ink-2">Verifying recomputes every hash of the organisation&apos;s log, not only the events listed here.</p>
-      </div>
+    <div className="flex min-w-0 flex-col gap-4" data-testid="custody-log">
+      <CustodyChainCheck filter={scope} onBroken={onBroken} />
 
-      {verify.error && (
-        <p role="alert" className="rounded-md border border-bad bg-bad-soft px-3 py-2 text-sm">
-          {verify.error.message}
-        </p>
-      )}
-      {result?.ok && (
-        <div role="status" data-testid="chain-verified" className="rounded-md border border-good px-3 py-2 text-sm">
-          <p className="font-medium">
-            <span aria-hidden>✓ </span>Chain intact: all {result.count.toLocaleString("en-US")} events recompute to their stored hashes.
-          </p>
-          <p className="mt-1 text-xs text-ink-2">
-            Head event #{result.headSeq}, hash <HashText value={result.headHash} label="Head hash" /> · verified {when(result.verifiedAt)}
-          </p>
-          <p className="mt-1" data-testid="chain-anchor">
-            {result.anchor
-              ? `Complete up to checkpoint ${result.anchor.number} (event #${result.anchor.headSeq}), signed ${when(result.anchor.signedAt)}${result.anchor.stampedAt ? `, time-stamped ${when(result.anchor.stampedAt)}` : ", not time-stamped"}; ${result.anchor.unanchored === 0 ? "every event is anchored" : `${result.anchor.unanchored.toLocaleString("en-US")} event${result.anchor.unanchored === 1 ? " after it is" : "s after it are"} not yet anchored`}.`
-              : "No checkpoint yet: the order of events is proven, that none was removed from the end is not yet."}
-          </p>
-          {result.anchor?.stale && result.anchor.oldestUnanchoredAt && (
-            <p className="mt-1 font-medium text-bad" data-testid="chain-anchor-stale">
-              Checkpoints have not kept up: an event from {when(result.anchor.oldestUnanchoredAt)} is still waiting for one. Either the worker is not making checkpoints, or the newest checkpoint was removed.
-            </p>
-          )}
-        </div>
-      )}
-      {result && !result.ok && result.checkpoint && (
-        <div role="alert" data-testid="chain-broken" className="rounded-md border-2 border-bad bg-bad-soft px-3 py-2 text-sm">
-          <p className="font-medium">
-            <span aria-hidden>✕ </span>Not complete: checkpoint {result.checkpoint.number} (event #{result.checkpoint.headSeq}, signed {when(result.checkpoint.signedAt)}) does not hold.
-          </p>
-          <p className="mt-1">{result.explanation}.</p>
-          {result.brokenAt && <p className="mt-1 font-mono text-xs">event #{result.brokenAt.seq}, id {result.brokenAt.id}</p>}
-        </div>
-      )}
-      {result && !result.ok && !result.checkpoint && result.brokenAt && (
-        <div role="alert" data-testid="chain-broken" className="rounded-md border-2 border-bad bg-bad-soft px-3 py-2 text-sm">
-          <p className="font-medium">
-            <span aria-hidden>✕ </span>Chain broken at event #{result.brokenAt.seq}: {custodyEventLabel(result.brokenAt.eventType)} ({result.brokenAt.evidenceType}) of {when(result.brokenAt.occurredAt)}.
-          </p>
-          <p className="mt-1">The first {result.count.toLocaleString("en-US")} events verify; this one does not: {result.explanation}.</p>
-          <p className="mt-1 font-mono text-xs">event id {result.brokenAt.id}</p>
-        </div>
-      )}
-
-      {list.isLoading && <p className="text-sm text-ink-2">Loading the custody log…</p>}
-      {list.error && <p role="alert" className="text-sm text-bad">{list.error.message}</p>}
-      {list.data && list.data.total === 0 && <EmptyState title="No custody events yet" next="Uploading, processing, viewing, sharing and deleting evidence each add an event here." />}
-      {list.data && list.data.total > 0 && (
-        <div className="overflow-x-auto rounded-md border border-line">
-          <table className="w-full text-left text-sm">
-            <caption className="sr-only">Custody events in chain order</caption>
-            <thead className="bg-paper-2 text-xs uppercase tracking-wide text-ink-2">
-              <tr>
-                <th className="px-3 py-2">#</th>
-                <th className="px-3 py-2">When (UTC)</th>
-                <th className="px-3 py-2">Event</th>
-                <th className="px-3 py-2">Who, from where</th>
-                <th className="px-3 py-2">Purpose and detail</th>
-                <th className="px-3 py-2">Hash</th>
-              </tr>
-            </thead>
-            <tbody>
-              {list.data.items.map((e) => (
-                <tr key={e.id} className={`border-t border-line align-top ${e.id === brokenId ? "bg-bad-soft" : ""}`} data-event-type={e.eventType}>
-                  <td className="px-3 py-2 font-mono tabular">
-                    {e.seq}
-                    {e.id === brokenId && <span className="ml-1 font-sans text-xs font-semibold text-bad">Broken here</span>}
-                  </td>
-                  <td className="whitespace-nowrap px-3 py-2 font-mono text-xs tabular">{when(e.occurredAt)}</td>
-                  <td className="px-3 py-2">
-                    <span className="font-medium">{custodyEventLabel(e.eventType)}</span>
-                    <span className="block text-xs text-ink-2">
-                      {e.evidenceType}
-                      {e.evidenceId ? ` ${e.evidenceId.slice(0, 8)}` : ""}
-                    </span>
-                  </td>
-                  <td className="px-3 py-2">
-                    {actorOf(e)}
-                    {(e.clientAddress || e.userAgent) && (
-                      <span className="block max-w-[16rem] truncate text-xs text-ink-2" title={e.userAgent ?? undefined}>
-                        {e.clientAddress ?? "address unknown"}
-                        {e.userAgent ? ` · ${e.userAgent}` : ""}
-                      </span>
-                    )}
-                  </td>
-                  <td className="px-3 py-2">
-                    {e.purpose ?? <span className="text-ink-2">—</span>}
-                    {e.tool && <span className="block font-mono text-xs text-ink-2">{e.tool}</span>}
-                    {e.originalSha256 && (
-                      <span className="block text-xs">
-                        {e.evidenceType === "report" ? "report PDF" : "original"} SHA-256 <HashText value={e.originalSha256} />
-                      </span>
-                    )}
-                  </td>
-                  <td className="px-3 py-2">
-                    <HashText value={e.hash} label="Event hash" />
-                  </td>
-                </tr>
+      <form className="flex flex-wrap items-end gap-3 rounded-md border border-line bg-paper-2/40 p-3" aria-label="Filter the custody log" onSubmit={(e) => e.preventDefault()}>
+        {!recordingId && (
+          <label className="flex min-w-0 flex-col gap-1 text-sm">
+            <span className="font-medium">Recording</span>
+            <select className={`${inputClass} max-w-64`} value={filters.recordingId} onChange={(e) => change({ recordingId: e.target.value })}>
+              <option value="">{jobId ? "Every recording of the job" : "Every recording"}</option>
+              {choices.data?.recordings.map((r) => (
+                <option key={r.id} value={r.id}>
+                  {r.name} · {r.createdAt.slice(0, 10)}
+                </option>
               ))}
-            </tbody>
-          </table>
-        </div>
+            </select>
+          </label>
+        )}
+        <label className="flex min-w-0 flex-col gap-1 text-sm">
+          <span className="font-medium">Kind of event</span>
+          <select className={`${inputClass} max-w-64`} value={filters.eventType} onChange={(e) => change({ eventType: e.target.value })}>
+            <option value="">Every kind</option>
+            {Object.entries(CUSTODY_EVENT_LABELS).map(([type, label]) => (
+              <option key={type} value={type}>
+                {label}
+              </option>
+            ))}
+          </select>
+        </label>
+        <label className="flex min-w-0 flex-col gap-1 text-sm">
+          <span className="font-medium">Person</span>
+          <select className={`${inputClass} max-w-64`} value={filters.actor} onChange={(e) => change({ actor: e.target.value })}>
+            <option value="">Anyone</option>
+            {choices.data?.people.map((p) => (
+              <option key={p.userId} value={p.userId}>
+                {p.name} ({ROLE_WORD[p.role] ?? p.role})
+              </option>
+            ))}
+            <option value="share">A client, through a share link</option>
+            <option value="system">Cairn (system)</option>
+          </select>
+        </label>
+        <label className="flex flex-col gap-1 text-sm">
+          <span className="font-medium">From (UTC)</span>
+          <input type="date" className={inputClass} value={filters.from} max={filters.to || undefined} onChange={(e) => change({ from: e.target.value })} />
+        </label>
+        <label className="flex flex-col gap-1 text-sm">
+          <span className="font-medium">To (UTC)</span>
+          <input type="date" className={inputClass} value={filters.to} min={filters.from || undefined} onChange={(e) => change({ to: e.target.value })} />
+        </label>
+        <label className="flex flex-col gap-1 text-sm">
+          <span className="font-medium">Order</span>
+          <select className={inputClass} value={filters.order} onChange={(e) => change({ order: e.target.value === "oldest" ? "oldest" : "newest" })}>
+            <option value="newest">Newest first</option>
+            <option value="oldest">Oldest first (chain order)</option>
+          </select>
+        </label>
+        {filtered && (
+          <button type="button" className="min-h-10 rounded-md border border-line px-3 text-sm hover:bg-paper-2" onClick={() => change({ ...NO_FILTERS, order: filters.order })}>
+            Clear filters
+          </button>
+        )}
+        <span className="ml-auto text-sm text-ink-2" aria-live="polite" data-testid="custody-count">
+          {list.isFetching ? "Loading…" : data ? (data.total === 0 ? "No events" : `Events ${first.toLocaleString("en-US")}–${last.toLocaleString("en-US")} of ${data.total.toLocaleString("en-US")}`) : ""}
+        </span>
+      </form>
+
+      {list.isError ? (
+        <p role="alert" className="rounded-md border border-bad bg-bad-soft px-3 py-2 text-sm">
+          Could not load the custody log: {(list.error as Error).message}
+        </p>
+      ) : list.isLoading || !data ? (
+        <div className="h-32 animate-pulse rounded-md bg-paper-2" role="status" aria-label="Loading the custody log" />
+      ) : data.total === 0 && !filtered ? (
+        <EmptyState title="No custody events yet" next="Uploading, processing, viewing, sharing and deleting evidence each add an event here." />
+      ) : (
+        <DataTable<CustodyListItem>
+          data={data.items}
+          columns={columns}
+          caption={`Custody events, ${filters.order === "newest" ? "newest first" : "oldest first"}`}
+          getRowId={(e) => e.id}
+          rowAttributes={(e) => ({ "data-event-type": e.eventType, "data-seq": String(e.seq), ...(e.id === brokenId ? { "data-broken": "true" } : {}) })}
+          noMatch="No event matches these filters."
+          testId="custody-table"
+        />
       )}
-      {pages > 1 && (
-        <div className="flex items-center gap-2 text-sm">
-          <Button variant="secondary" disabled={page <= 1} onClick={() => setPage(page - 1)}>
-            Earlier
-          </Button>
-          <span>
-            Page {page} of {pages}
-          </span>
-          <Button variant="secondary" disabled={page >= pages} onClick={() => setPage(page + 1)}>
-            Later
-          </Button>
-        </div>
+
+      {(pageIndex > 0 || data?.nextCursor) && (
+        <nav className="flex flex-wrap items-center gap-2 text-sm" aria-label="Pages of the custody log">
+          <button type="button" className="min-h-10 rounded-md border border-line px-3 disabled:opacity-40" disabled={pageIndex === 0} onClick={() => setCursors([undefined])}>
+            {filters.order === "newest" ? "Newest" : "Oldest"}
+          </button>
+          <button type="button" className="min-h-10 rounded-md border border-line px-3 disabled:opacity-40" disabled={pageIndex === 0} onClick={() => setCursors(cursors.slice(0, -1))}>
+            ← {newerLabel}
+          </button>
+          <span className="tabular">Page {pageIndex + 1}</span>
+          <button
+            type="button"
+            className="min-h-10 rounded-md border border-line px-3 disabled:opacity-40"
+            disabled={!data?.nextCursor || list.isFetching}
+            onClick={() => data?.nextCursor && setCursors([...cursors, data.nextCursor])}
+          >
+            {olderLabel} →
+          </button>
+        </nav>
       )}
     </div>
   );

@@ -1,7 +1,7 @@
 "use client";
 // In the user menu, for people who belong to more than one organisation: the one they work in now,
 // and a button for each of the others. Switching changes the session (the server checks the
-// membership first), then reloads the workspace from the jobs list of the chosen organisation.
+// membership first), then reloads the workspace from the start page of the chosen organisation.
 import { useSession } from "next-auth/react";
 import { useRouter } from "next/navigation";
 import { useRef, useState } from "react";
@@ -26,7 +26,7 @@ export function OrganisationSwitcher({ currentId, organisations }: { currentId: 
         return;
       }
       box.current?.closest("details")?.removeAttribute("open"); // the menu closes on the new workspace
-      router.push("/jobs");
+      router.push("/today");
       router.refresh();
     } catch {
       setError("Could not switch: the connection failed. Try again.");

@@ -79,7 +79,7 @@ export function AcceptInvitationForm({ token, email, organisationName, hasAccoun
         }
         const res = await signIn("password", { email, password: v.password, redirect: false });
         if (!res || res.error) router.replace("/sign-in");
-        else router.replace("/jobs");
+        else router.replace("/today");
       })}
     >
       <Field label="Your name" autoComplete="name" {...form.register("name")} error={form.formState.errors.name?.message} />

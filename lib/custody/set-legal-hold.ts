@@ -1,5 +1,6 @@
 // Puts a job under legal hold or releases it. While held, none of the job's originals or derived
-// files may be deleted. Setting or releasing is itself a custody event; setting needs a reason.
+// files may be deleted. Setting or releasing is itself a custody event, and each needs a reason
+// (lib/validation/legal-hold.ts), written into the event's purpose.
 import { and, eq } from "drizzle-orm";
 import { db } from "@/db/client";
 import { jobs } from "@/db/schema";
@@ -21,11 +22,14 @@ export async function getLegalHold(organisationId: string, jobId: string): Promi
 export async function setLegalHold(
   member: Member,
   jobId: string,
-  input: { hold: boolean; reason?: string | null },
+  input: { hold: boolean; reason: string },
   facts: RequestFacts,
 ): Promise<LegalHold> {
-  const reason = input.reason?.trim() || null;
-  if (input.hold && !reason) throw new ApiError("unprocessable", "Say why the job is held", { reason: ["Give the reason for the hold (case, claim or request reference)"] });
+  const reason = input.reason.trim();
+  if (!reason)
+    throw new ApiError("unprocessable", input.hold ? "Say why the job is held" : "Say why the hold is released", {
+      reason: [input.hold ? "Give the reason for the hold (case, claim or request reference)" : "Say why the hold is released"],
+    });
   return db().transaction(async (tx) => {
     const [job] = await tx
       .select({ id: jobs.id, legalHold: jobs.legalHold, legalHoldReason: jobs.legalHoldReason })
@@ -50,8 +54,8 @@ export async function setLegalHold(
         jobId,
         actor: { userId: member.userId, role: member.role },
         ...facts,
-        purpose: input.hold ? `Legal hold: ${reason}` : `Legal hold released${reason ? `: ${reason}` : ""}`,
-        details: { previousReason: job.legalHoldReason },
+        purpose: input.hold ? `Legal hold: ${reason}` : `Legal hold released: ${reason}`,
+        details: input.hold ? { previousReason: job.legalHoldReason } : { previousReason: job.legalHoldReason, releaseReason: reason },
       },
       tx,
     );

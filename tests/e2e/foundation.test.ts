@@ -50,7 +50,10 @@ describe("foundation in the browser", () => {
     await signInWithPassword(page, "owner@kestrelmoor.example");
     await expect.poll(() => page.getByTestId("user-menu").textContent()).toContain("Ada Thornbury");
 
-    // the jobs page is home: statuses are explained in words
+    // signing in lands on the start page; the jobs page explains statuses in words
+    await page.getByRole("heading", { name: "Today", exact: true }).waitFor();
+    await page.getByRole("link", { name: "Jobs", exact: true }).click();
+    await page.waitForURL(/\/jobs$/);
     await expect.poll(() => page.getByText("What the statuses mean").count()).toBe(1);
     expect(await page.getByText("Reviewers are marking findings in the recordings.").count()).toBeGreaterThan(0);
 
@@ -182,7 +185,7 @@ describe("foundation in the browser", () => {
     expect(await page.locator("article").first().getByRole("link", { name: link! }).count()).toBe(1);
 
     await page.goto(link!);
-    await page.waitForURL(/\/jobs/);
+    await page.waitForURL(/\/today/);
     const menu = await page.getByTestId("user-menu").textContent();
     expect(menu).toContain("Cleo Marchbank");
     expect(menu).toContain("Reviewer");
@@ -222,7 +225,7 @@ describe("foundation in the browser", () => {
       const switcher = page.getByTestId("organisation-switcher");
       expect(await switcher.locator('[aria-current="true"]').textContent()).toContain(home.name);
       await switcher.getByRole("button", { name: `Switch to ${second.name}` }).click();
-      await page.waitForURL(/\/jobs/);
+      await page.waitForURL(/\/today/);
       // the workspace now belongs to the second organisation, where this person is a reviewer
       await expect.poll(() => orgName.textContent(), { timeout: 15_000 }).toBe(second.name);
       expect(await page.getByTestId("user-menu").textContent()).toContain("Reviewer");

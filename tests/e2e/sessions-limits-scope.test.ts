@@ -141,7 +141,7 @@ describe("the client address under next start", () => {
       fetch(`${BASE}/api/jobs/${job.id}/hold`, {
         method: "PUT",
         headers: { "content-type": "application/json", origin: BASE, cookie: jar.header(), "x-forwarded-for": "203.0.113.50" },
-        body: JSON.stringify(hold ? { hold: true, reason: "Address check" } : { hold: false }),
+        body: JSON.stringify(hold ? { hold: true, reason: "Address check" } : { hold: false, reason: "Address check done" }),
       });
     expect((await put(true)).status).toBe(200);
     expect((await put(false)).status).toBe(200);

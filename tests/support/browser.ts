@@ -23,5 +23,5 @@ export async function signInWithPassword(page: Page, email: string, password = D
   await page.getByLabel("E-mail").fill(email);
   await page.getByLabel("Password").fill(password);
   await page.getByRole("button", { name: "Sign in" }).click();
-  await page.waitForURL(/\/jobs/);
+  await page.waitForURL(/\/today/);
 }

@@ -1,16 +1,17 @@
-// GET /api/custody?recordingId= | ?jobId=: the custody trail of a recording or a job, in chain order
-import { z } from "zod";
+// GET /api/custody[?recordingId= | ?jobId=]: a custody trail, or the organisation's whole log, newest first
+// by default, filtered by kind of event (eventType=a,b), person (actor=<user id>|system|share) and UTC
+// dates (from=, to=), one keyset page at a time (cursor = the previous answer's nextCursor; pageSize <= 200)
 import { withOrg, parseQuery, ok } from "@/lib/api/with-org";
 import { listCustodyEvents } from "@/lib/custody/list-custody-events";
-
-const query = z.object({
-  recordingId: z.string().uuid().optional(),
-  jobId: z.string().uuid().optional(),
-  page: z.coerce.number().int().min(1).max(100000).default(1),
-  pageSize: z.coerce.number().int().min(1).max(500).default(100),
-});
+import { custodyListQuery } from "@/lib/validation/custody-list";
 
 export const GET = withOrg({ permission: "custody.read" }, async ({ req, member }) => {
-  const q = parseQuery(req, query);
-  return ok(await listCustodyEvents(member.organisationId, { recordingId: q.recordingId, jobId: q.jobId }, q.page, q.pageSize));
+  const q = parseQuery(req, custodyListQuery);
+  return ok(
+    await listCustodyEvents(
+      member.organisationId,
+      { recordingId: q.recordingId, jobId: q.jobId, eventTypes: q.eventType, actor: q.actor, from: q.from, to: q.to },
+      { order: q.order, cursor: q.cursor, pageSize: q.pageSize },
+    ),
+  );
 });

@@ -93,9 +93,24 @@ describe("deletion", () => {
     expect((await del("other", job.recB.id)).status).toBe(404);
   });
 
+  it("is not released without a reason: 422 naming the reason, the hold stays, nothing is logged", async () => {
+    for (const body of [{ hold: false }, { hold: false, reason: "" }, { hold: false, reason: "   " }, { hold: false, reason: null }]) {
+      const res = await setHold("owner", body);
+      expect(res.status, JSON.stringify(body)).toBe(422);
+      expect((await res.json()).error.fields.reason).toBeTruthy();
+    }
+    const [row] = await db().select({ legalHold: s.jobs.legalHold }).from(s.jobs).where(eq(s.jobs.id, job.jobId));
+    expect(row.legalHold).toBe(true);
+    expect(await eventsOf(job.jobId, "hold_released")).toHaveLength(0);
+  });
+
   it("after the hold is released, the owner deletes: files gone, row kept as deleted, trail kept, deletion recorded", async () => {
     expect((await setHold("owner", { hold: false, reason: "Claim settled" })).status).toBe(200);
-    expect(await eventsOf(job.jobId, "hold_released")).toHaveLength(1);
+    const released = await eventsOf(job.jobId, "hold_released");
+    expect(released).toHaveLength(1);
+    // the release's reason is in the custody log, beside who released it
+    expect(released[0]).toMatchObject({ actorRole: "owner", purpose: "Legal hold released: Claim settled" });
+    expect(released[0].details).toMatchObject({ releaseReason: "Claim settled", previousReason: "Insurance claim 2026-114" });
 
     const before = await (await trail.GET(await req(actors.owner, "GET", `/api/custody?recordingId=${job.recA.id}`))).json();
     const res = await del("owner", job.recA.id, { reason: "Duplicate pass, client agreed" });
@@ -113,7 +128,8 @@ describe("deletion", () => {
     const after = await (await trail.GET(await req(actors.owner, "GET", `/api/custody?recordingId=${job.recA.id}`))).json();
     const types = after.items.map((e: { eventType: string }) => e.eventType);
     expect(after.total).toBe(before.total + 1);
-    expect(types.at(-1)).toBe("deletion");
+    // newest first: the deletion heads the trail
+    expect(types[0]).toBe("deletion");
     expect(types).toContain("deletion_refused");
     const [deleted] = await eventsOf(job.recA.id, "deletion");
     expect(deleted).toMatchObject({ actorRole: "owner", originalSha256: job.recA.sha256, originalSize: job.recA.originalBytes.length, storageLocation: job.recA.originalKey });

@@ -54,6 +54,8 @@ export const MATRIX: Record<string, MatrixRow> = {
   "GET /api/auth/[...nextauth]": { url: () => "/api/auth/session", expect: "", skip: "next-auth's own routes" },
   "POST /api/auth/[...nextauth]": { url: () => "/api/auth/signout", expect: "", skip: "next-auth's own routes (its CSRF token)" },
 
+  "GET /api/attention": { url: () => "/api/attention", expect: "401 200 200 200 200 200" },
+
   "GET /api/clients": { url: () => "/api/clients", expect: "401 200 200 200 200 200" },
   "POST /api/clients": { url: () => "/api/clients", body: { name: "" }, expect: "401 403 403 403 422 422" },
   "GET /api/clients/[id]": { url: (f) => `/api/clients/${f.clientId}`, params: id("clientId"), expect: "401 404 200 200 200 404" },
@@ -65,6 +67,7 @@ export const MATRIX: Record<string, MatrixRow> = {
   "GET /api/collector/views": { url: (f) => `/api/collector/views?recordingId=${f.recordingId}`, expect: "401 403 200 200 200 404" },
 
   "GET /api/custody": { url: (f) => `/api/custody?jobId=${f.jobId}`, expect: "401 403 200 200 200 404" },
+  "GET /api/custody/filters": { url: (f) => `/api/custody/filters?jobId=${f.jobId}`, expect: "401 403 200 200 200 404" },
   "GET /api/custody/export": { url: (f) => `/api/custody/export?jobId=${f.jobId}`, expect: "401 403 200 200 200 404" },
   "POST /api/custody/verify": { url: () => "/api/custody/verify", expect: "401 403 200 200 200 200" },
 

@@ -1,13 +1,11 @@
-// GET /api/jobs/:id/hold: whether the job is under legal hold; PUT: set (with a reason) or release it
+// GET /api/jobs/:id/hold: whether the job is under legal hold; PUT: set or release it, each with a reason
 import { requireInScope } from "@/lib/auth/client-scope";
-import { z } from "zod";
-import { plainText } from "@/lib/validation/common";
+import { legalHoldInput } from "@/lib/validation/legal-hold";
 import { withOrg, readJson, idParam, ok } from "@/lib/api/with-org";
 import { requestFacts } from "@/lib/custody/record-custody-event";
 import { getLegalHold, setLegalHold } from "@/lib/custody/set-legal-hold";
 
 type P = { id: string };
-const input = z.object({ hold: z.boolean(), reason: plainText(500, true).nullish() }).strict();
 
 export const GET = withOrg<P>({ permission: "workspace.read" }, async ({ params, member }) => {
   const id = idParam(params.id, "Job not found");
@@ -17,5 +15,5 @@ export const GET = withOrg<P>({ permission: "workspace.read" }, async ({ params,
 );
 
 export const PUT = withOrg<P>({ permission: "holds.manage" }, async ({ req, params, member }) =>
-  ok(await setLegalHold(member, idParam(params.id, "Job not found"), await readJson(req, input), requestFacts(req))),
+  ok(await setLegalHold(member, idParam(params.id, "Job not found"), await readJson(req, legalHoldInput), requestFacts(req))),
 );
