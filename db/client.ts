@@ -30,14 +30,19 @@ export function sqlClient(): postgres.Sql {
       max: poolSize(),
       idle_timeout: 30,
       onnotice: () => {},
-      // tests read the SQL a function sends (the EXPLAIN tests of the lists); nothing is kept otherwise
-      debug: (_connection, query, parameters) => g.__cairnQueryObserver?.(query, parameters as unknown[]),
+      // tests that read the SQL a function sends (the lists' EXPLAIN tests) ask for it before the pool
+      // opens; never otherwise, since postgres.js's debug mode also makes a failed query's bound
+      // parameters enumerable on its error, where a log line could pick them up
+      ...(process.env.CAIRN_OBSERVE_QUERIES === "1" ? { debug: (_connection: number, query: string, parameters: unknown[]) => g.__cairnQueryObserver?.(query, parameters) } : {}),
     });
   }
   return g.__cairnSql;
 }
 
-/** Calls `observer` with every query this process sends until the returned function is called. */
+/**
+ * Calls `observer` with every query this process sends until the returned function is called; only
+ * when CAIRN_OBSERVE_QUERIES=1 was set before the pool opened.
+ */
 export function observeQueries(observer: QueryObserver): () => void {
   g.__cairnQueryObserver = observer;
   return () => {
