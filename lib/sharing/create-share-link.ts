@@ -11,6 +11,7 @@ import { recordCustodyEvent } from "@/lib/custody/record-custody-event";
 import { mailShareLink } from "@/lib/mail/mail-share-link";
 import { generateShareToken, hashShareToken } from "./share-token";
 import { shareLinkUrl } from "./share-link-url";
+import { loadShareScope } from "./share-scope";
 import type { ShareLinkInput } from "./share-link-input";
 import type { AccessFacts } from "./record-share-access";
 
@@ -111,7 +112,18 @@ export async function createShareLink(member: Member, input: ShareLinkInput, fac
   let mailed: string[] = [];
   if (input.sendMail && recipients.length) {
     try {
+      const contents = await loadShareScope({
+        id: link.id,
+        organisationId: member.organisationId,
+        jobId: job.id,
+        scope: link.scope,
+        recordingId: input.scope === "recording" ? input.recordingId! : null,
+        findingIds,
+        reportId: input.reportId ?? null,
+        allowOriginals: link.allowOriginals,
+      });
       await mailShareLink({
+        contains: { recordings: contents.recordings.length, findings: contents.findings.length, report: contents.report !== null },
         to: recipients,
         url,
         expiresAt: link.expiresAt,

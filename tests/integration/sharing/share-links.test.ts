@@ -159,6 +159,21 @@ describe("creating a link", () => {
     expect(mail!.text).toContain(json.url);
     expect(mail!.html).toContain(json.url);
     expect(mail!.text).toContain(new Date(json.expiresAt).toISOString().slice(0, 10));
+    // the job has an approved report, so the whole-job link offers it
+    expect(mail!.text).toContain("download the report");
+  });
+
+  it("promises no report when the link carries none (a recording without an attached report)", async () => {
+    const to = `recipient-norep-${Date.now()}@client.example`;
+    const { json } = await share({ jobId: job.jobId, scope: "recording", recordingId: job.recA.id, recipientEmails: [to], label: "One clip" });
+    expect(json.mailed).toEqual([to]);
+    let mail;
+    for (let i = 0; i < 50 && !mail; i++) {
+      [mail] = await readMailbox({ to });
+      if (!mail) await new Promise((r) => setTimeout(r, 100));
+    }
+    expect(mail!.text).toContain("You can watch the recording");
+    expect(mail!.text).not.toContain("report");
   });
 });
 
