@@ -10,10 +10,9 @@ import { custodyEvents, recordings, reports, stills } from "@/db/schema";
 import { closeRedis } from "@/lib/queue/redis";
 import { closeQueues, enqueue, queue } from "@/lib/queue/jobs";
 import { demoOrganisationId } from "@/tests/support/session";
-import { makeFlight, makeJob } from "@/tests/support/factories";
+import { makeFlight, makeJob, makeRecordingWithOriginal } from "@/tests/support/factories";
 import { makeRawH264 } from "@/tests/support/media/make-h264";
 import { makeProcessedRecording } from "@/tests/support/media/make-processed-recording";
-import { makeRecording } from "@/tests/integration/processing/support/make-recording";
 import { spawnWorker, type WorkerProcess } from "@/tests/integration/processing/support/spawn-worker";
 import { RELIABILITY_ENV } from "./support/reliability-env";
 import { redisCommand, startRedis, stopRedisNoSave } from "./support/throwaway-services";
@@ -55,7 +54,7 @@ describe("Redis restarted empty during processing", () => {
     const base = await makeProcessedRecording(orgId, await makeFlight(orgId), { seconds: 2, fps: 10, width: 160, height: 96 });
     const stream = await makeRawH264({ width: 320, height: 180, fps: 25, seconds: 6 });
     const recs = [];
-    for (let i = 0; i < RECORDINGS; i++) recs.push(await makeRecording(orgId, stream));
+    for (let i = 0; i < RECORDINGS; i++) recs.push(await makeRecordingWithOriginal(orgId, stream));
     const stillRows = await db()
       .insert(stills)
       .values(Array.from({ length: STILLS }, (_, i) => ({ organisationId: orgId, recordingId: base.recording.id, frameNumber: 2 + i * 3, timeSec: (2 + i * 3) / 10 })))

@@ -17,7 +17,7 @@ import { commitRecordingOutputs } from "@/lib/processing/commit-recording-output
 import { deriveRecordingOutputs, type DeriveResult } from "@/lib/processing/derive-recording-outputs";
 import { makeRawH264 } from "@/tests/support/media/make-h264";
 import { demoOrganisationId } from "@/tests/support/session";
-import { makeRecording } from "./support/make-recording";
+import { makeRecordingWithOriginal } from "@/tests/support/factories";
 
 let orgId: string;
 let dir: string;
@@ -35,8 +35,8 @@ afterAll(async () => {
 });
 
 /** A waiting recording and the outputs of a real derivation of its original, in a work folder. */
-async function derived(): Promise<{ rec: Awaited<ReturnType<typeof makeRecording>>; result: DeriveResult; workDir: string }> {
-  const rec = await makeRecording(orgId, source);
+async function derived(): Promise<{ rec: Awaited<ReturnType<typeof makeRecordingWithOriginal>>; result: DeriveResult; workDir: string }> {
+  const rec = await makeRecordingWithOriginal(orgId, source);
   const workDir = path.join(dir, rec.id);
   await mkdir(workDir, { recursive: true });
   const result = await deriveRecordingOutputs({ declaredKind: "raw_h264", originalPath: storePath(rec.storageKey!), fpsOverride: null, organisationDefaultFps: 30, workDir, signal: new AbortController().signal });

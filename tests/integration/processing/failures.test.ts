@@ -17,7 +17,7 @@ import * as reprocessRoute from "@/app/api/recordings/[id]/reprocess/route";
 import { makeRawH264, runTool } from "@/tests/support/media/make-h264";
 import { demoActors, demoOrganisationId, req, route } from "@/tests/support/session";
 import { waitForRecordings, waitJobs } from "@/tests/support/wait-jobs";
-import { makeRecording } from "./support/make-recording";
+import { makeRecordingWithOriginal } from "@/tests/support/factories";
 
 const dir = path.join(os.tmpdir(), `cairn-test-3-bad-${process.pid}`);
 let worker: RunningWorker;
@@ -87,9 +87,9 @@ describe("files that cannot be processed", () => {
   it("each end as failed with a readable reason, the original untouched, and the worker serves the next job", async () => {
     const bad = await makeBadFiles();
     const good = await makeRawH264({ width: 432, height: 240, fps: 30, seconds: 2 });
-    const rows: Record<string, Awaited<ReturnType<typeof makeRecording>>> = {};
-    for (const [name, { file, kind }] of Object.entries(bad)) rows[name] = await makeRecording(orgId, file, { kind });
-    rows.good = await makeRecording(orgId, good);
+    const rows: Record<string, Awaited<ReturnType<typeof makeRecordingWithOriginal>>> = {};
+    for (const [name, { file, kind }] of Object.entries(bad)) rows[name] = await makeRecordingWithOriginal(orgId, file, { kind });
+    rows.good = await makeRecordingWithOriginal(orgId, good);
     // Bad jobs first, the good one last: it only runs once the worker has been through every failure.
     for (const name of [...Object.keys(bad), "good"]) await enqueue("process-recording", { recordingId: rows[name].id });
     await waitJobs({ names: ["process-recording"] });

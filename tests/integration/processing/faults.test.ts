@@ -17,7 +17,7 @@ import { makeRawH264 } from "@/tests/support/media/make-h264";
 import { demoOrganisationId } from "@/tests/support/session";
 import { TEST_ENV } from "@/tests/support/test-env";
 import { pendingJobs, waitForRecordings } from "@/tests/support/wait-jobs";
-import { makeRecording } from "./support/make-recording";
+import { makeRecordingWithOriginal } from "@/tests/support/factories";
 import { spawnWorker, type WorkerProcess } from "./support/spawn-worker";
 
 // Short lock and stall checks so a dead worker's job is taken over in seconds, not a minute (yet long
@@ -81,7 +81,7 @@ describe("the worker as a process", () => {
   let survivor: WorkerProcess;
 
   it("killed with SIGKILL mid-job: after a restart the job completes with exactly one set of renditions", async () => {
-    const rec = await makeRecording(orgId, stream);
+    const rec = await makeRecordingWithOriginal(orgId, stream);
     const first = start();
     await first.waitForLine(/\[worker\] ready/);
     await enqueue("process-recording", { recordingId: rec.id });
@@ -116,7 +116,7 @@ describe("the worker as a process", () => {
 
   let handedBack: string;
   it("SIGTERM mid-job: stops within its bound and the job goes back to the queue, not to failed", async () => {
-    const rec = await makeRecording(orgId, stream);
+    const rec = await makeRecordingWithOriginal(orgId, stream);
     handedBack = rec.id;
     await enqueue("process-recording", { recordingId: rec.id });
     await waitUntilProcessing(rec.id, survivor);
@@ -132,8 +132,8 @@ describe("the worker as a process", () => {
   });
 
   it("Redis loses its data while jobs wait: the reconciler queues them again from Postgres and none is lost", async () => {
-    const a = await makeRecording(orgId, shortStream);
-    const b = await makeRecording(orgId, shortStream);
+    const a = await makeRecordingWithOriginal(orgId, shortStream);
+    const b = await makeRecordingWithOriginal(orgId, shortStream);
     await enqueue("process-recording", { recordingId: a.id });
     await enqueue("process-recording", { recordingId: b.id });
     expect(await pendingJobs(["process-recording"])).toBe(3); // a, b and the job handed back above

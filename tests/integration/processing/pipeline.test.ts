@@ -29,7 +29,7 @@ import * as progressRoute from "@/app/api/recordings/[id]/progress/route";
 import { makeRawH264, runTool } from "@/tests/support/media/make-h264";
 import { demoActors, demoOrganisationId, req, route, type Actor, type DemoActorKey } from "@/tests/support/session";
 import { waitForRecordings, waitJobs } from "@/tests/support/wait-jobs";
-import { makeRecording } from "./support/make-recording";
+import { makeRecordingWithOriginal } from "@/tests/support/factories";
 import { readMp4 } from "./support/read-mp4";
 import { ffprobeFrameCount, ffprobeSize } from "./support/probe-tools";
 import { readRecordingTrace } from "@/lib/recordings/read-recording-trace";
@@ -60,8 +60,8 @@ afterAll(async () => {
   await closeRedis();
 });
 
-async function processNow(file: string, over: Parameters<typeof makeRecording>[2] = {}) {
-  const rec = await makeRecording(orgId, file, over);
+async function processNow(file: string, over: Parameters<typeof makeRecordingWithOriginal>[2] = {}) {
+  const rec = await makeRecordingWithOriginal(orgId, file, over);
   await enqueue("process-recording", { recordingId: rec.id });
   await waitForRecordings([rec.id]);
   return rec;
@@ -328,7 +328,7 @@ describe("a stream with lost frames", () => {
 
 describe("progress reporting", () => {
   it("goes to the job and to Postgres, throttled, in whole percents, never backwards, never 100 before the commit", async () => {
-    const rec = await makeRecording(orgId, controllerStream);
+    const rec = await makeRecordingWithOriginal(orgId, controllerStream);
     const seen: number[] = [];
     let clock = 0;
     const reporter = recordingProgressReporter({ updateProgress: async (p: unknown) => void seen.push(p as number) }, rec.id, () => clock);

@@ -12,12 +12,10 @@ import { closeQueues, queue } from "@/lib/queue/jobs";
 import { reconcileJobs } from "@/worker/reconcile-jobs";
 import { extractStill } from "@/worker/handlers/extract-still";
 import { demoOrganisationId } from "@/tests/support/session";
-import { makeJob } from "@/tests/support/factories";
+import { makeJob, makeFlight, makeRecordingWithOriginal } from "@/tests/support/factories";
 import { makeRawH264 } from "@/tests/support/media/make-h264";
 import { makeProcessedRecording } from "@/tests/support/media/make-processed-recording";
-import { makeFlight } from "@/tests/support/factories";
 import { TEST_ENV } from "@/tests/support/test-env";
-import { makeRecording } from "./support/make-recording";
 
 let orgId: string;
 beforeAll(async () => {
@@ -31,7 +29,7 @@ afterAll(async () => {
 
 describe("the reconciler", () => {
   it("queues again the recording, the still and the report build whose jobs Redis lost", async () => {
-    const rec = await makeRecording(orgId, await makeRawH264({ width: 160, height: 96, fps: 10, seconds: 1 }));
+    const rec = await makeRecordingWithOriginal(orgId, await makeRawH264({ width: 160, height: 96, fps: 10, seconds: 1 }));
     const [still] = await db().insert(stills).values({ organisationId: orgId, recordingId: rec.id, frameNumber: 3, timeSec: 0.3 }).returning();
     const job = await makeJob(orgId);
     const [report] = await db().insert(reports).values({ organisationId: orgId, jobId: job.id, version: 1 }).returning();

@@ -14,18 +14,18 @@ import { stillKey } from "@/lib/storage/storage-keys";
 import { commitStill } from "@/lib/findings/commit-still";
 import type { ExtractedFrame } from "@/lib/findings/extract-frame";
 import { demoOrganisationId } from "@/tests/support/session";
-import { makeRecording } from "@/tests/integration/processing/support/make-recording";
+import { makeRecordingWithOriginal } from "@/tests/support/factories";
 
 let orgId: string;
 let dir: string;
-let rec: Awaited<ReturnType<typeof makeRecording>>;
+let rec: Awaited<ReturnType<typeof makeRecordingWithOriginal>>;
 
 beforeAll(async () => {
   orgId = await demoOrganisationId();
   dir = await mkdtemp(path.join(os.tmpdir(), "cairn-commit-still-"));
   const original = path.join(dir, "FLIGHT.264");
   await writeFile(original, Buffer.from([0, 0, 0, 1, 0x67, 0x42]));
-  rec = await makeRecording(orgId, original);
+  rec = await makeRecordingWithOriginal(orgId, original);
 });
 afterAll(async () => {
   await rm(dir, { recursive: true, force: true });

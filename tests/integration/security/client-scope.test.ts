@@ -43,7 +43,7 @@ import { DEMO_CLIENT_ACCOUNT_CLIENTS, DEMO_CLIENTS } from "@/db/seed/demo-scenar
 import { demoActors, demoOrganisationId, req, route, sessionCookie, type Actor, type DemoActorKey } from "@/tests/support/session";
 import { clientOf, tieClientAccount } from "@/tests/support/client-scope";
 import { makeReport, makeSharedJob } from "../sharing/share-fixtures";
-import { makeMember } from "../work/make-member";
+import { makeMember } from "@/tests/support/factories";
 
 let actors: Record<DemoActorKey, Actor>;
 let orgId: string;

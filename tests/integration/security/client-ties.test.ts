@@ -10,8 +10,7 @@ import { closeDb } from "@/db/client";
 import { closeRedis } from "@/lib/queue/redis";
 import { readMailbox } from "@/lib/mail/read-mailbox";
 import { demoActors, demoOrganisationId, req, route, type Actor, type DemoActorKey } from "@/tests/support/session";
-import { makeClient, makeJob, makeSite } from "@/tests/support/factories";
-import { makeMember } from "../work/make-member";
+import { makeClient, makeJob, makeSite, makeMember } from "@/tests/support/factories";
 
 let actors: Record<DemoActorKey, Actor>;
 let orgId: string;

@@ -13,7 +13,7 @@ import { hashPassword } from "@/lib/auth/password";
 import { startSession } from "@/lib/auth/user-sessions";
 import { closeRedis } from "@/lib/queue/redis";
 import { demoActors, demoOrganisationId, req, route, sessionCookie, type Actor, type DemoActorKey } from "@/tests/support/session";
-import { makeMember } from "../work/make-member";
+import { makeMember } from "@/tests/support/factories";
 
 let actors: Record<DemoActorKey, Actor>;
 let orgId: string;

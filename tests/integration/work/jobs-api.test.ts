@@ -8,9 +8,8 @@ import * as one from "@/app/api/jobs/[id]/route";
 import { db, closeDb } from "@/db/client";
 import { jobs } from "@/db/schema";
 import { demoActors, demoOrganisationId, req, route, type Actor, type DemoActorKey } from "@/tests/support/session";
-import { makeClient, makeFlight, makeJob, makeSite } from "@/tests/support/factories";
+import { makeClient, makeFlight, makeJob, makeSite, makeMember } from "@/tests/support/factories";
 import { closeRedis } from "@/lib/queue/redis";
-import { makeMember } from "./make-member";
 
 let actors: Record<DemoActorKey, Actor>;
 let orgId: string;

@@ -8,10 +8,9 @@ import * as clientsApi from "@/app/api/clients/route";
 import { db, closeDb } from "@/db/client";
 import { flights, jobs, memberships, users } from "@/db/schema";
 import { demoActors, demoOrganisationId, membershipRole, req, route, type Actor, type DemoActorKey } from "@/tests/support/session";
-import { makeFlight, makeJob } from "@/tests/support/factories";
+import { makeFlight, makeJob, makeMember } from "@/tests/support/factories";
 import { closeRedis } from "@/lib/queue/redis";
 import { createOrganisation } from "@/lib/members/create-organisation";
-import { makeMember } from "./make-member";
 
 let actors: Record<DemoActorKey, Actor>;
 let orgId: string;
