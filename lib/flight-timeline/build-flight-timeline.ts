@@ -5,7 +5,9 @@
 // A gap is estimated from the recorders' file times: a file's modification time is when the recorder
 // closed it, so the next file started at (its close time - its length), and the gap is that start
 // minus the previous close time. Without both times, or when they contradict each other by more than
-// the tolerance (recorder clocks are often unset), the gap is shown with its length unknown.
+// the tolerance (recorder clocks are often unset), the gap is shown with its length unknown. Times in
+// order but closer together than the files last are copy times (the card was copied to a computer):
+// the gap is unknown then too, and said so, rather than called a contradiction.
 //
 // A gap longer than the tolerance is an outage: the recorder stopped (typically the link was lost and
 // the controller closed the file) and started a new file. The flight's summary counts it as loss,
@@ -91,12 +93,20 @@ function lengthOf(f: TimelineFileInput): number | null {
   return f.durationSec !== null && f.durationSec > 0 ? f.durationSec : null;
 }
 
+export const COPY_TIMES = "file times are when the files were copied, not when they were recorded";
+
 export function estimateGap(prev: TimelineFileInput, next: TimelineFileInput): { seconds: number | null; reason: string | null } {
   const nextLength = lengthOf(next);
   if (!prev.recorderModifiedAt || !next.recorderModifiedAt) return { seconds: null, reason: "file times unknown" };
   if (nextLength === null) return { seconds: null, reason: "file not processed yet" };
-  const gap = (next.recorderModifiedAt.getTime() - prev.recorderModifiedAt.getTime()) / 1000 - nextLength;
-  if (gap < -GAP_TOLERANCE_SEC) return { seconds: null, reason: "file times contradict the order" };
+  const between = (next.recorderModifiedAt.getTime() - prev.recorderModifiedAt.getTime()) / 1000;
+  // the next file closed before the previous one did: the times really disagree with the order
+  if (between < -GAP_TOLERANCE_SEC) return { seconds: null, reason: "file times contradict the order" };
+  const gap = between - nextLength;
+  // In order, but closer together than the next file lasts: these are not close times at all. A file
+  // copied off the card (or saved by a browser) gets the time it was written, so every file of a card
+  // carries nearly the same time. Nothing contradicts the order; the gap just cannot be told.
+  if (gap < -GAP_TOLERANCE_SEC) return { seconds: null, reason: COPY_TIMES };
   return { seconds: Math.max(0, gap), reason: null };
 }
 

@@ -38,6 +38,19 @@ describe("estimateGap", () => {
     expect(estimateGap(file("a", "1", "2026-03-14T10:05:00Z", 60), file("b", "2", "2026-03-14T10:02:30Z", 30)).reason).toBe("file times contradict the order");
   });
 
+  it("does not call two ordinary files' times a contradiction when they are copy times (written a moment apart, closer than the file lasts)", () => {
+    // two 4 s files copied off the card (or saved by a browser) 40 ms apart: the times are in order but
+    // are not the recorder's close times, so the gap cannot be told; nothing contradicts the order
+    const a = file("a", "REC_0001.264", "2026-03-14T10:01:00.000Z", 4);
+    const b = file("b", "REC_0002.264", "2026-03-14T10:01:00.040Z", 4);
+    const g = estimateGap(a, b);
+    expect(g.seconds).toBeNull();
+    expect(g.reason).not.toMatch(/contradict/);
+    expect(g.reason).toBe("file times are when the files were copied, not when they were recorded");
+    const timeline = buildFlightTimeline([a, { ...b, sequenceIndex: 1 }]);
+    expect(timeline.gaps.map((x) => x.reason)).toEqual(["file times are when the files were copied, not when they were recorded"]);
+  });
+
   it("counts a small overlap (clock and frame-rate slack, up to 2 s) as no gap", () => {
     const a = file("a", "1", "2026-03-14T10:01:00Z", 60);
     const b = file("b", "2", "2026-03-14T10:01:29Z", 30);
