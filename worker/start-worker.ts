@@ -16,6 +16,7 @@ import { workerTimings, type WorkerTimings } from "./worker-options";
 import { checkpointSettings } from "@/lib/custody/checkpoint-settings";
 
 const PURGE_EVERY_MS = 60 * 60_000; // hourly
+const RETENTION_SWEEP_EVERY_MS = 60 * 60_000; // hourly: reminders are per day, package keep dates per day
 const FORCED_STOP_WAIT_MS = 5_000; // 5 s for cancelled jobs to hand themselves back
 
 class ShutdownAbort extends Error {
@@ -125,6 +126,15 @@ export async function startWorker(options: StartOptions = {}): Promise<RunningWo
         "custody-checkpoints",
         { every: checkpointSettings().everyMs },
         { name: "custody-checkpoints", data: {}, opts: { attempts: s.attempts, backoff: { type: "exponential", delay: s.backoffMs }, removeOnComplete: { count: 24 }, removeOnFail: { count: 100 } } },
+      );
+    }
+    if (names.includes("retention-sweep")) {
+      // disposal reminders and expired evidence packages (lib/retention/run-retention-sweep.ts)
+      const s = JOB_SETTINGS["retention-sweep"];
+      await queue("retention-sweep").upsertJobScheduler(
+        "retention-sweep",
+        { every: RETENTION_SWEEP_EVERY_MS },
+        { name: "retention-sweep", data: {}, opts: { attempts: s.attempts, backoff: { type: "exponential", delay: s.backoffMs }, removeOnComplete: { count: 24 }, removeOnFail: { count: 100 } } },
       );
     }
   };

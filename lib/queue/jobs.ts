@@ -12,6 +12,7 @@ export type JobPayloads = {
   "purge-uploads": Record<string, never>;
   "custody-checkpoints": Record<string, never>;
   "build-evidence-package": { packageId: string };
+  "retention-sweep": Record<string, never>;
 };
 export type JobName = keyof JobPayloads;
 
@@ -25,6 +26,7 @@ export const JOB_SETTINGS: Record<JobName, JobSettings> = {
   "purge-uploads": { attempts: 1, backoffMs: 0, timeoutMs: 10 * 60_000, concurrency: 1 },
   "custody-checkpoints": { attempts: 3, backoffMs: 30_000, timeoutMs: 10 * 60_000, concurrency: 1 },
   "build-evidence-package": { attempts: 2, backoffMs: 10_000, timeoutMs: 3 * 3600_000, concurrency: 1 }, // 3 h: hundreds of GB at disk speed
+  "retention-sweep": { attempts: 3, backoffMs: 60_000, timeoutMs: 10 * 60_000, concurrency: 1 },
 };
 
 /** Deterministic job id: dedupes while the job exists; BullMQ ids may not contain ':' nor be all digits. */

@@ -12,6 +12,7 @@ import { buildReport } from "./build-report";
 import { purgeUploads } from "./purge-uploads";
 import { custodyCheckpoints } from "./custody-checkpoints";
 import { buildEvidencePackage } from "./build-evidence-package";
+import { retentionSweep } from "./retention-sweep";
 
 export type JobHandler<N extends JobName> = (data: JobPayloads[N], ctx: JobContext) => Promise<unknown>;
 export type JobRunner<N extends JobName> = (job: Job<JobPayloads[N]>, signal: AbortSignal) => Promise<void>;
@@ -31,4 +32,5 @@ export const handlers: JobHandlers = {
   "purge-uploads": run(purgeUploads),
   "custody-checkpoints": run(custodyCheckpoints),
   "build-evidence-package": run(buildEvidencePackage),
+  "retention-sweep": run(retentionSweep),
 };
