@@ -153,6 +153,11 @@ export const MATRIX: Record<string, MatrixRow> = {
   "GET /api/reports/[id]/download": { url: (f) => `/api/reports/${f.reportId}/download`, params: id("reportId"), headers: { range: "bytes=1-1" }, expect: "401 404 206 206 206 404" },
   "HEAD /api/reports/[id]/download": { url: (f) => `/api/reports/${f.reportId}/download`, params: id("reportId"), expect: "401 404 200 200 200 404" },
 
+  "GET /api/retention": { url: () => "/api/retention", expect: "401 403 403 403 200 200" },
+  "PUT /api/retention": { url: () => "/api/retention", body: { target: "nope" }, expect: "401 403 403 403 422 422" },
+  "POST /api/retention/jobs/[id]/disposal": { url: () => `/api/retention/jobs/${NOWHERE}/disposal`, params: none, body: {}, expect: "401 403 403 403 422 422" },
+  "POST /api/retention/jobs/[id]/final-package": { url: () => `/api/retention/jobs/${NOWHERE}/final-package`, params: none, body: {}, expect: "401 403 403 403 404 404" },
+
   "GET /api/s/[token]/manifest": { url: (f) => `/api/s/${f.shareToken}/manifest`, params: (f) => ({ token: f.shareToken }), expect: "200 200 200 200 200 200" },
   "GET /api/s/[token]/package": { url: (f) => `/api/s/${f.shareToken}/package`, params: (f) => ({ token: f.shareToken }), expect: "404 404 404 404 404 404" },
   "HEAD /api/s/[token]/package": { url: (f) => `/api/s/${f.shareToken}/package`, params: (f) => ({ token: f.shareToken }), expect: "404 404 404 404 404 404" },
