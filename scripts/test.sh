@@ -33,6 +33,6 @@ npx vitest run --project integration
 echo "[cairn] building the web app for the browser tests"
 # a parallel test slot builds into a folder of its own (tests/support/test-env.ts)
 if [ -n "${CAIRN_TEST_SLOT:-}" ] && [ "${CAIRN_TEST_SLOT}" != "0" ]; then export NEXT_DIST_DIR=".next-test-${CAIRN_TEST_SLOT}"; fi
-npx next build > .data/logs/next-build.log 2>&1 || { tail -50 .data/logs/next-build.log; exit 1; }
+CAIRN_TYPECHECKED=1 npx next build > .data/logs/next-build.log 2>&1 || { tail -50 .data/logs/next-build.log; exit 1; }
 echo "[cairn] browser tests (Debian chromium), and the start command on a fresh data folder"
 npx vitest run --project e2e
