@@ -99,6 +99,10 @@ export const MATRIX: Record<string, MatrixRow> = {
   "DELETE /api/flights/[id]": { url: () => `/api/flights/${NOWHERE}`, params: none, expect: "401 403 404 403 404 404" },
   "PATCH /api/flights/[id]/order": { url: (f) => `/api/flights/${f.flightId}/order`, params: id("flightId"), body: { recordingIds: [] }, expect: "401 403 422 403 422 422" },
   "GET /api/flights/[id]/timeline": { url: (f) => `/api/flights/${f.flightId}/timeline`, params: id("flightId"), expect: "401 404 200 200 200 404" },
+  "GET /api/flights/[id]/track": { url: (f) => `/api/flights/${f.flightId}/track`, params: id("flightId"), expect: "401 403 200 200 200 404" },
+  "POST /api/flights/[id]/track": { url: (f) => `/api/flights/${f.flightId}/track`, params: id("flightId"), body: { fileName: "", contentBase64: "" }, expect: "401 403 422 403 422 422" },
+  "POST /api/flights/[id]/track/alignment": { url: (f) => `/api/flights/${f.flightId}/track/alignment`, params: id("flightId"), body: { method: "nope" }, expect: "401 403 422 403 422 422" },
+  "POST /api/flights/[id]/track/range-checks": { url: (f) => `/api/flights/${f.flightId}/track/range-checks`, params: id("flightId"), body: { recordingId: "nope" }, expect: "401 403 422 403 422 422" },
 
   "GET /api/invitations": { url: () => "/api/invitations", expect: "401 403 403 403 200 200" },
   "POST /api/invitations": { url: () => "/api/invitations", body: { email: "nope", role: "pilot" }, expect: "401 403 403 403 422 422" },
