@@ -1,6 +1,9 @@
 // A recording's views for its page: who (member or share link), when, and how playback went; newest
-// first, paged by keyset (playback_views_org_recording_idx serves the order).
-import { and, eq } from "drizzle-orm";
+// first, paged by keyset (playback_views_org_recording_idx serves the order). A view with no watch
+// time is someone opening the page without playing: the player's analytics report it, and the row is
+// kept (its first beacon may carry a share link's token that later beacons lack), but it is not a view
+// of the footage, so it is not listed (before, opening a recording listed a "view" of 0.0 s).
+import { and, eq, gt } from "drizzle-orm";
 import { afterCursor, keysetColumns, keysetOrder, pageOfRows, type KeyPart, type KeysetParams } from "@/lib/api/keyset";
 import { db } from "@/db/client";
 import { playbackViews, recordings, shareLinks, users } from "@/db/schema";
@@ -30,7 +33,7 @@ export async function listPlaybackViews(organisationId: string, recordingId: str
     .from(playbackViews)
     .leftJoin(users, eq(users.id, playbackViews.viewerUserId))
     .leftJoin(shareLinks, and(eq(shareLinks.id, playbackViews.shareLinkId), eq(shareLinks.organisationId, organisationId)))
-    .where(and(eq(playbackViews.organisationId, organisationId), eq(playbackViews.recordingId, recordingId), afterCursor(page.cursor, "default", KEYS)))
+    .where(and(eq(playbackViews.organisationId, organisationId), eq(playbackViews.recordingId, recordingId), gt(playbackViews.watchTimeMs, 0), afterCursor(page.cursor, "default", KEYS)))
     .orderBy(...keysetOrder(KEYS))
     .limit(page.pageSize + 1);
   const result = pageOfRows(rows, page.pageSize, "default", KEYS);

@@ -146,6 +146,7 @@ beforeAll(async () => {
         viewKey: `paging-${randomUUID()}`,
         startedAt: i < 3 ? started : new Date(started.getTime() + i * 1000),
         lastBeaconAt: started,
+        watchTimeMs: 1000 + i, // played: a view without watch time is not listed
       })),
     );
 });

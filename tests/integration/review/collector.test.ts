@@ -90,7 +90,10 @@ describe("collector", () => {
       if (actor) h.cookie = await sessionCookie(actor);
       return viewsApi.GET(new Request(`http://localhost/api/collector/views?recordingId=${recordingId}`, { headers: h }));
     };
+    // opening the page without playing: mux-embed still reports the view, with 0 ms watched and no first frame
+    await beacon(actors.pilot, events("view-opened-only", 0, { xtitofifr: undefined }));
     const body = await (await req(actors.pilot)).json();
+    // a view of 0.0 s is no view: only the reviewer's 9 s one is listed
     expect(body.items).toHaveLength(1);
     expect(body.items[0]).toMatchObject({ viewerName: "Cleo Marchbank", watchTimeMs: 9000, rebufferCount: 2 });
     expect((await req(actors.other)).status).toBe(404);
