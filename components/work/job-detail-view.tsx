@@ -14,6 +14,7 @@ import { FlightsTable } from "./flights-table";
 import { FlightForm } from "./flight-form";
 import { Coordinates } from "./coordinates";
 import { DetailSection, Fact } from "./detail-section";
+import { JobEvidencePackages } from "@/components/evidence-packages/job-evidence-packages";
 
 export type JobDetailData = JobFormRow & {
   legalHold: boolean;
@@ -127,6 +128,8 @@ export function JobDetailView({
           }}
         />
       </DetailSection>
+
+      <JobEvidencePackages jobId={job.id} role={me.role} />
 
       {editing && <JobForm row={job} onClose={() => setEditing(false)} onSaved={() => router.refresh()} />}
       {logging && <FlightForm row={null} jobId={job.id} units={units} me={me} onClose={() => setLogging(false)} />}
