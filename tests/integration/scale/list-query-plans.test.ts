@@ -52,7 +52,7 @@ async function planOfPage(table: string, call: () => Promise<unknown>, seqscanOf
     if (seqscanOff) await tx`set local enable_seqscan = off`;
     return tx.unsafe(`explain (format json) ${page[0].query}`, page[0].parameters as postgres.ParameterOrJSON<never>[]);
   });
-  const plan = (rows[0] as { "QUERY PLAN": { Plan: PlanNode }[] })["QUERY PLAN"][0].Plan;
+  const plan = (rows[0] as unknown as { "QUERY PLAN": { Plan: PlanNode }[] })["QUERY PLAN"][0].Plan;
   return nodes(plan);
 }
 
