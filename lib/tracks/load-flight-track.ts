@@ -281,8 +281,14 @@ export async function loadFlightTrackView(orgId: string, flightId: string) {
 
 export type FlightTrackView = Awaited<ReturnType<typeof loadFlightTrackView>>;
 
-/** The first point 2 m or more above the launch: a likely take-off to match a frame to (index, 0-based). */
+/**
+ * A likely take-off to match a frame to (index, 0-based): the last point still within 0.5 m of the launch
+ * height before the track first reaches 2 m above it (thresholds ours: above a GNSS height's jitter on
+ * the ground, below any climb-out).
+ */
 export function takeOffIndex(points: readonly TrackPoint[]): number | null {
-  const i = points.findIndex((p) => p.h !== null && p.h >= 2);
-  return i < 0 ? null : Math.max(0, i - 1);
+  let i = points.findIndex((p) => p.h !== null && p.h >= 2);
+  if (i < 0) return null;
+  while (i > 0 && (points[i].h === null || (points[i].h as number) > 0.5)) i--;
+  return i;
 }

@@ -29,10 +29,10 @@ describe("position at a moment of the track", () => {
     expect(gap.ok).toBe(false);
     expect(!gap.ok && gap.reason).toBe("in a gap of 8.0 s between track points 3 and 4");
   });
-  it("finds the take-off: the point before the first one 2 m or more above the launch", () => {
+  it("finds the take-off: the last point within 0.5 m of the launch before the first one 2 m above it", () => {
     expect(takeOffIndex(track)).toBe(0);
     const ground = [0, 0.5, 1, 5, 9].map((h, i) => ({ t: T0 + i * 1000, lat: LAUNCH.lat, lon: LAUNCH.lon, h }));
-    expect(takeOffIndex(ground)).toBe(2);
+    expect(takeOffIndex(ground)).toBe(1);
     expect(takeOffIndex(ground.map((p) => ({ ...p, h: null })))).toBeNull();
   });
 });
