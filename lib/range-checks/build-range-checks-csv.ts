@@ -1,4 +1,5 @@
 import { fromMetres } from "@/lib/geo";
+import { ALTITUDE_CAUTION_THRESHOLD_M, ALTITUDE_LIMIT_CAUTION, LOCAL_RULES_CAUTION, RADIO_RANGE_CAUTION } from "@/lib/geo/cautions";
 import { csvDocument, type CsvValue } from "@/lib/csv/write-csv";
 import { LINK_EVENT_META } from "./link-events";
 import type { RangeCheckMeasures } from "./range-check-measures";
@@ -13,6 +14,9 @@ export type RangeCheckExportRow = RangeCheckMeasures & {
   recordingName: string | null;
   createdAt: Date | string;
 };
+
+/** The last column's header: what the range figures are not, and who decides (lib/geo/cautions.ts). */
+export const RANGE_CHECK_CSV_CAUTION = `Caution: ${RADIO_RANGE_CAUTION.summary} ${LOCAL_RULES_CAUTION.summary}`;
 
 // Every length twice, metres and feet, so a reader in either unit never converts by hand; the unit
 // is in every header (docs/look.md: units always written).
@@ -39,6 +43,9 @@ export const RANGE_CHECK_CSV_HEADER = [
   "Notes",
   "Recorded at (UTC)",
   "Range check id",
+  // the figures are distances to the aircraft: the radio-range caution travels with the file, in its
+  // header (docs/look.md, "Cautions"); a check above the common altitude limit says so in its row
+  RANGE_CHECK_CSV_CAUTION,
 ] as const;
 
 /** Rounds to a fixed number of decimals but stays a number: 3 decimals of a metre is a millimetre. */
@@ -71,6 +78,7 @@ export function rangeCheckCsvRecord(r: RangeCheckExportRow): CsvValue[] {
     r.notes,
     (typeof r.createdAt === "string" ? new Date(r.createdAt) : r.createdAt).toISOString(),
     r.id,
+    r.heightAglM > ALTITUDE_CAUTION_THRESHOLD_M ? `Caution: ${ALTITUDE_LIMIT_CAUTION.summary}` : null,
   ];
 }
 

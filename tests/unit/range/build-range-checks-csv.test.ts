@@ -57,6 +57,16 @@ describe("buildRangeChecksCsv", () => {
     expect(col("Recorded at (UTC)")).toBe('"2026-03-14T10:15:00.000Z"');
   });
 
+  it("carries the radio-range caution in its header and the altitude caution on a check above 120 m (lib/geo/cautions.ts)", () => {
+    const last = fieldsOf(header).at(-1)!;
+    expect(last).toContain("Range figures describe the radio link, not permission to fly that far.");
+    expect(last).toContain("the pilot in command decide");
+    // 400 ft = 121.92 m AGL, above the lower common limit of 120 m
+    expect(fieldsOf(record).at(-1)).toContain("Above 120 m (about 400 ft) above ground level");
+    const low = fieldsOf(buildRangeChecksCsv([{ ...base, heightAglM: 61 }]).split("\r\n")[1]);
+    expect(low.join(",")).not.toContain("Caution");
+  });
+
   it("guards typed text that a spreadsheet would run, in any text column", () => {
     const out = buildRangeChecksCsv([{ ...base, notes: "=HYPERLINK(\"http://x.invalid\")", firmware: "@SUM(A1)", cameraOrientation: "-45°", aircraft: "+quad" }]);
     expect(out).toContain(`"'=HYPERLINK(""http://x.invalid"")"`);
