@@ -1,5 +1,6 @@
 // The database client. One postgres.js pool per process, kept on globalThis so that
 // Next's hot reload in development does not open a new pool on every change.
+import "server-only";
 import { drizzle, type PostgresJsDatabase } from "drizzle-orm/postgres-js";
 import postgres from "postgres";
 import { z } from "zod";

@@ -25,6 +25,7 @@
 // body (no Content-Length or 0, no Transfer-Encoding) needs no Content-Type. Callers with their own
 // protocol (tus: application/offset+octet-stream; the analytics beacon: text/plain) check the origin
 // only.
+import "server-only";
 import { ApiError } from "./errors";
 import { env } from "@/lib/config/env";
 

@@ -3,6 +3,7 @@
 // to expire, and flights with no recording. Each group is shown only to a role that may act on it or
 // see it (lib/auth/permissions.ts), and a client account sees only its own clients' work
 // (lib/auth/client-scope.ts). Every item carries the address where it is handled. Nothing here writes.
+import "server-only";
 import { and, asc, count, desc, eq, gt, inArray, isNull, lte, notExists, sql, type SQL } from "drizzle-orm";
 import { db } from "@/db/client";
 import { findings, flights, jobs, recordings, reports, shareLinks, sites } from "@/db/schema";

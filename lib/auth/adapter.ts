@@ -1,6 +1,7 @@
 // The few next-auth adapter methods that e-mail sign-in links need, on our own tables.
 // Sessions are JWTs, so no session or account tables. Links are only ever mailed to existing
 // users, so creating a user through this path is refused.
+import "server-only";
 import type { Adapter, AdapterUser } from "next-auth/adapters";
 import { and, eq } from "drizzle-orm";
 import { db } from "@/db/client";

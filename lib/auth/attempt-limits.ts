@@ -5,6 +5,7 @@
 // After the free tries, every further failure sets a wait that doubles, up to a ceiling; while a wait
 // runs the answer is 429 with Retry-After (RFC 6585 section 4, RFC 9110 section 10.2.3).
 // Common practice, no published source: a handful of free tries, then exponential backoff.
+import "server-only";
 import { createHash } from "node:crypto";
 import { ApiError } from "@/lib/api/errors";
 import { env } from "@/lib/config/env";

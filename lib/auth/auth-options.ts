@@ -2,6 +2,7 @@
 // The JWT carries only the user id and the active organisation; role is read from the database
 // on every request so a changed or removed membership takes effect at once. The active
 // organisation is the oldest membership at sign-in, and changes through the switcher.
+import "server-only";
 import type { NextAuthOptions } from "next-auth";
 import CredentialsProvider from "next-auth/providers/credentials";
 import EmailProvider from "next-auth/providers/email";

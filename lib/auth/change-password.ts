@@ -1,5 +1,6 @@
 // A signed-in person changes their own password: the current one must be right, and every other
 // open session of the person ends (a stolen cookie stops working); the session making the change stays.
+import "server-only";
 import { eq } from "drizzle-orm";
 import { db } from "@/db/client";
 import { users } from "@/db/schema";

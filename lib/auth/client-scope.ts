@@ -3,6 +3,7 @@
 // (flights, recordings, findings, stills), and of reports only the approved versions. The crew
 // (member.clientIds === null) sees the whole organisation. Anything out of scope answers 404, the same
 // as a record of another organisation, so a client cannot even learn that it exists.
+import "server-only";
 import { and, eq, inArray, sql, type AnyColumn, type SQL } from "drizzle-orm";
 import { db } from "@/db/client";
 import { clients, flights, findings, jobs, recordings, reports, sites, stills } from "@/db/schema";

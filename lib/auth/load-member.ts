@@ -1,6 +1,7 @@
 // Who is asking, in which organisation, with which role: read from the database on every request,
 // together with the server-side session row (an ended session gives no member) and, for a client
 // account, the organisation's clients whose work it may see.
+import "server-only";
 import { and, eq, isNull } from "drizzle-orm";
 import { db } from "@/db/client";
 import { membershipClients, memberships, organisations, userSessions, users } from "@/db/schema";

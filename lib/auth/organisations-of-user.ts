@@ -1,5 +1,6 @@
 // The organisations a person belongs to, for the switcher in the user menu, and the check made
 // before the session's active organisation changes: only to one the person is a member of now.
+import "server-only";
 import { and, asc, eq } from "drizzle-orm";
 import { db } from "@/db/client";
 import { memberships, organisations } from "@/db/schema";

@@ -1,5 +1,6 @@
 // Reads the signed-in user from a request's session cookie (the next-auth JWT), without
 // depending on Next's request context, so route handlers can be called directly in tests.
+import "server-only";
 import { decode } from "next-auth/jwt";
 import { parse as parseCookieHeader } from "cookie";
 import { env } from "@/lib/config/env";

@@ -4,6 +4,7 @@
 // (an authorize() that returns null is "CredentialsSignin", never a 429).
 // The body keeps next-auth's shape for its client (`url` with ?error=rate_limited, which signIn()
 // returns as `error`), plus the app's error object.
+import "server-only";
 import { assertNotLimited, claimAttempt, countFailure, RateLimitedError } from "./attempt-limits";
 import { clientAddress } from "@/lib/http/client-address";
 import { env } from "@/lib/config/env";

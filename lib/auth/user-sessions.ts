@@ -1,6 +1,7 @@
 // Server-side record of signed-in sessions. next-auth 4's JWT sessions are stateless, so each token
 // carries the id of a user_sessions row (`sid`) and every request checks that the row is still open.
 // Ending the row ends the session at the next request, whatever the token's expiry says.
+import "server-only";
 import { and, eq, isNull, lt, ne, or } from "drizzle-orm";
 import { db, type DbOrTx } from "@/db/client";
 import { userSessions } from "@/db/schema";

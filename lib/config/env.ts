@@ -1,5 +1,6 @@
 // Environment, parsed once with zod. Every variable has a local default that matches
 // what docker-less-dev/ starts, so a fresh clone needs no .env file.
+import "server-only";
 import { z } from "zod";
 import path from "node:path";
 import { loadInstallationSecrets, SECRET_NAMES, type InstallationSecrets } from "./installation-secrets";

@@ -3,6 +3,7 @@
 // the tests) that has none gets random values made on first use and kept in one file under the data
 // folder, readable by its owner only, and read again on every later start. No usable value is in the
 // source, so reading the code never lets anyone sign a session or a media address.
+import "server-only";
 import { randomBytes } from "node:crypto";
 import { chmodSync, closeSync, linkSync, mkdirSync, openSync, readFileSync, statSync, unlinkSync, writeSync } from "node:fs";
 import path from "node:path";

@@ -1,6 +1,7 @@
 // The installation's custody signing key: an Ed25519 key pair (RFC 8032) made from the 32-byte seed in
 // CUSTODY_SIGNING_KEY (base64url; lib/config/env.ts keeps it outside the database). The database holds
 // only the public key, so someone who can write to the database cannot sign a checkpoint.
+import "server-only";
 import { createHash, createPrivateKey, createPublicKey, sign, verify, type KeyObject } from "node:crypto";
 import { env } from "@/lib/config/env";
 

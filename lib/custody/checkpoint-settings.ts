@@ -7,6 +7,7 @@
 //   CUSTODY_PREVIOUS_PUBLIC_KEYS earlier custody public keys (base64url, comma-separated) still trusted for
 //                                checkpoints signed before CUSTODY_SIGNING_KEY was changed. Kept in the
 //                                environment, not the database, so a database writer cannot add one.
+import "server-only";
 import { isProductionServer } from "@/lib/config/env";
 
 export const LOCAL_TSA_URL = "http://127.0.0.1:3399/";

@@ -2,6 +2,7 @@
 // trail holds the events about the recording itself, its renditions and stills, and its findings;
 // a job's trail holds every event filed under the job. The list pages by keyset and filters by kind of
 // event, person and date. Nothing here writes.
+import "server-only";
 import { and, asc, count, desc, eq, gt, gte, inArray, isNotNull, isNull, lt, or, sql, type SQL } from "drizzle-orm";
 import { db } from "@/db/client";
 import { custodyEvents, findings, jobs, memberships, recordings, renditions, stills, users } from "@/db/schema";

@@ -1,4 +1,5 @@
 // The job or recording a custody page is about, inside the member's organisation only.
+import "server-only";
 import { and, eq } from "drizzle-orm";
 import { db } from "@/db/client";
 import { jobs, recordings, sites } from "@/db/schema";

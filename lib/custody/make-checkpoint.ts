@@ -3,6 +3,7 @@
 // (checkpoint-key.ts) and time-stamped by an RFC 3161 authority (request-timestamp.ts). Run by the
 // worker (job "custody-checkpoints", every few minutes) and on demand (`npm run custody:checkpoint`),
 // never on a request's path. Two workers at once: the unique (organisation, number) index lets one win.
+import "server-only";
 import { desc, eq, sql } from "drizzle-orm";
 import { db, type DbOrTx } from "@/db/client";
 import { custodyCheckpoints, custodyEvents } from "@/db/schema";

@@ -1,5 +1,6 @@
 // Appends one event to the organisation's custody chain inside a transaction. A per-organisation
 // advisory lock serialises appends, so two requests can never both link to the same previous event.
+import "server-only";
 import { clientAddress, UNKNOWN_ADDRESS } from "@/lib/http/client-address";
 import { randomUUID } from "node:crypto";
 import { desc, eq, sql } from "drizzle-orm";

@@ -1,6 +1,7 @@
 // Puts a job under legal hold or releases it. While held, none of the job's originals or derived
 // files may be deleted. Setting or releasing is itself a custody event, and each needs a reason
 // (lib/validation/legal-hold.ts), written into the event's purpose.
+import "server-only";
 import { and, eq } from "drizzle-orm";
 import { db } from "@/db/client";
 import { jobs } from "@/db/schema";

@@ -4,6 +4,7 @@
 // With custody checkpoints (make-checkpoint.ts) it also proves completeness: each checkpoint's signed
 // head must be the stored event at that position, and the log must reach the last checkpoint's head;
 // events after the last checkpoint are reported as not yet anchored.
+import "server-only";
 import { and, asc, eq, gt } from "drizzle-orm";
 import { db, type DbOrTx } from "@/db/client";
 import { custodyEvents } from "@/db/schema";

@@ -1,6 +1,7 @@
 // Refuses a package that would not fit on the store's disk, before anything is written: the free
 // space is what fs.statfs reports as available to this (unprivileged) process, bavail x bsize
 // (Node.js fs.statfs documentation; statfs(2)), less the reserve the settings keep free.
+import "server-only";
 import { statfs } from "node:fs/promises";
 import { ApiError } from "@/lib/api/errors";
 import { formatBytes } from "@/lib/uploads/format-bytes";

@@ -3,6 +3,7 @@
 // is queued or written: another organisation's or an unknown job, flight or recording (not found), a
 // job whose files were disposed of, chosen recordings that are deleted or being deleted, and a
 // selection with nothing in it. A job under legal hold may be packaged: packaging removes nothing.
+import "server-only";
 import { and, asc, eq, inArray, isNull, or, sql, type SQL } from "drizzle-orm";
 import { db } from "@/db/client";
 import { clients, custodyEvents, findings, flights, jobs, organisations, recordings, renditions, reports, sites, stills } from "@/db/schema";

@@ -1,6 +1,7 @@
 // The commit of a built evidence package: the row becomes ready with its ZIP's key, size and SHA-256,
 // and the build is one custody event (package_built), in one transaction. Refused (false) unless the
 // row is still building, so a second run of the job never records a second build.
+import "server-only";
 import { and, eq } from "drizzle-orm";
 import { db } from "@/db/client";
 import { evidencePackages } from "@/db/schema";

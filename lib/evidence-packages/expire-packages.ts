@@ -1,5 +1,6 @@
 // Removes the files of evidence packages past their keep date and marks them expired (run by the
 // worker's retention sweep). The row stays, with its SHA-256, and so do its custody events.
+import "server-only";
 import { and, eq, lte } from "drizzle-orm";
 import { db } from "@/db/client";
 import { evidencePackages } from "@/db/schema";

@@ -3,6 +3,7 @@
 // disposed job, nothing to package; check-free-space.ts: a package larger than the free disk, with
 // the figures), then one row is written and the worker's job queued. A job under legal hold may be
 // packaged.
+import "server-only";
 import { count } from "drizzle-orm";
 import { db } from "@/db/client";
 import { custodyEvents, evidencePackages } from "@/db/schema";

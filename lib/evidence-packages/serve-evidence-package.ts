@@ -2,6 +2,7 @@
 // so a cut download resumes where it stopped (lib/media-serving/serve-stored-file.ts, RFC 9110 14).
 // One custody event per download, judged on the answer sent (lib/custody/counts-as-download.ts), for a
 // member and for a share link alike; a share link's download is also in the link's own event list.
+import "server-only";
 import { and, eq } from "drizzle-orm";
 import { db } from "@/db/client";
 import { evidencePackages, jobs, shareLinkEvents } from "@/db/schema";

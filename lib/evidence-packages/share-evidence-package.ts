@@ -1,6 +1,7 @@
 // Lets a share link carry an evidence package of its job (or takes it off again): whoever holds the link
 // may then download that package from the share page (/api/s/:token/package). Only a link of the same
 // job, not revoked, can carry it; attaching is recorded in the custody chain like any sharing.
+import "server-only";
 import { and, eq, isNull } from "drizzle-orm";
 import { db } from "@/db/client";
 import { evidencePackages, shareLinks } from "@/db/schema";

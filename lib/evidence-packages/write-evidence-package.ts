@@ -3,6 +3,7 @@
 // events, checks the free disk, streams the bag into a temporary file beside its final place
 // (write-bag-zip.ts), reads the finished file back to verify its SHA-256, then renames it into place
 // read-only. The originals' bytes are checked against the SHA-256 recorded at upload on the way.
+import "server-only";
 import { createReadStream, createWriteStream } from "node:fs";
 import { chmod, mkdir, open, rename, rm } from "node:fs/promises";
 import { createHash, randomUUID } from "node:crypto";

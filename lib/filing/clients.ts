@@ -1,4 +1,5 @@
 // Clients of the organisation: list, read, create, update, archive.
+import "server-only";
 import { and, count, eq, type SQL } from "drizzle-orm";
 import { db } from "@/db/client";
 import { clients, sites } from "@/db/schema";

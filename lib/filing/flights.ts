@@ -1,4 +1,5 @@
 // Flights of the organisation: list, read, create, update, archive. A flight is one sortie flown for a job.
+import "server-only";
 import { and, count, eq, sql, type SQL } from "drizzle-orm";
 import { alias } from "drizzle-orm/pg-core";
 import { db, type DbOrTx } from "@/db/client";

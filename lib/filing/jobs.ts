@@ -1,5 +1,6 @@
 // Jobs of the organisation: list, read, create, update, archive. A job is a piece of inspection work
 // at a site, with a status and an assigned pilot and reviewer.
+import "server-only";
 import { and, count, eq, inArray, isNull, sql, type SQL } from "drizzle-orm";
 import { alias } from "drizzle-orm/pg-core";
 import { db, type DbOrTx } from "@/db/client";

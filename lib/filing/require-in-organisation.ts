@@ -1,6 +1,7 @@
 // Ids that a body refers to (clientId, siteId, jobId, pilotId, reviewerId) must name rows of the
 // caller's own organisation. Another organisation's id answers exactly like an unknown one, as a
 // field error (422), so a request can never learn that the row exists elsewhere.
+import "server-only";
 import { and, eq } from "drizzle-orm";
 import type { DbOrTx } from "@/db/client";
 import { clients, jobs, memberships, sites } from "@/db/schema";

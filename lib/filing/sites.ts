@@ -1,4 +1,5 @@
 // Sites of the organisation: list, read, create, update, archive.
+import "server-only";
 import { and, count, eq, isNull, sql, type SQL } from "drizzle-orm";
 import { db } from "@/db/client";
 import { assetKindEnum, clients, jobs, sites } from "@/db/schema";

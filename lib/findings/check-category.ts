@@ -1,5 +1,6 @@
 // A finding may only point at a category of its own organisation. An archived category stays valid
 // for findings that already carry it, but is not offered for new ones.
+import "server-only";
 import { and, eq } from "drizzle-orm";
 import type { DbOrTx } from "@/db/client";
 import { findingCategories } from "@/db/schema";

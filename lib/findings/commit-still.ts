@@ -2,6 +2,7 @@
 // with its stored JPEG's key, size in pixels and SHA-256, and one "derived" custody event. Only one run
 // makes the still: a second run of the same job (queued again by the reconciler while the first was
 // still going) waits on the row lock, then finds it ready and records nothing. False then.
+import "server-only";
 import { and, eq, ne } from "drizzle-orm";
 import { db } from "@/db/client";
 import { stills } from "@/db/schema";

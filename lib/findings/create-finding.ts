@@ -1,5 +1,6 @@
 // Marks a finding: the finding, its first revision, a pending still and the custody event are written
 // in one transaction, so a refused or failed request leaves nothing behind.
+import "server-only";
 import { db } from "@/db/client";
 import { findingRevisions, findings } from "@/db/schema";
 import { ApiError } from "@/lib/api/errors";

@@ -1,5 +1,6 @@
 // Deleting a finding is a recorded act, not an erasure: the row is marked deleted, a final revision
 // keeps its last state, and the custody log says who removed it and when.
+import "server-only";
 import { and, eq, isNull } from "drizzle-orm";
 import { db } from "@/db/client";
 import { findingRevisions, findings } from "@/db/schema";

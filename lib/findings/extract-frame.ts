@@ -6,6 +6,7 @@
 // accurate seek drops every frame that starts before the seek point, so the first frame out is N.
 // To be sure, the frame's own timestamp (kept with -copyts, printed by the metadata filter) is
 // checked against N's start; a mismatch fails the job instead of storing the wrong picture.
+import "server-only";
 import { readFile } from "node:fs/promises";
 import path from "node:path";
 import { runFfmpeg, runFfprobe } from "@/lib/processing/ffmpeg";

@@ -1,6 +1,7 @@
 // Finding categories of an organisation: listed with the ones for the asset at hand first,
 // created, renamed, archived (never erased: findings keep pointing at them), and the default set
 // restored without touching what the organisation already has.
+import "server-only";
 import { and, asc, eq, isNotNull, isNull, or, sql } from "drizzle-orm";
 import { db } from "@/db/client";
 import { findingCategories, findings } from "@/db/schema";

@@ -1,5 +1,6 @@
 // What the API and pages show of a finding: its own columns, the category and author names, the
 // recording's name and original hash, and its newest still. Never the whole row (DEVELOPERS.md, "Data").
+import "server-only";
 import { and, count, desc, eq, inArray, isNull, type SQL } from "drizzle-orm";
 import { afterCursor, keysetColumns, keysetOrder, pageOfRows, type KeyPart, type KeysetParams } from "@/lib/api/keyset";
 import { db, type DbOrTx } from "@/db/client";

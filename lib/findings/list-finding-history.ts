@@ -1,4 +1,5 @@
 // Every version of a finding, oldest first, with who made it: the answer to "what did this say before?"
+import "server-only";
 import { and, asc, eq } from "drizzle-orm";
 import { db } from "@/db/client";
 import { findingRevisions, findings, users } from "@/db/schema";

@@ -1,4 +1,5 @@
 // Asks for a finding's still once more, as a new still row: the earlier attempt stays on record.
+import "server-only";
 import { and, eq, isNull } from "drizzle-orm";
 import { db } from "@/db/client";
 import { findings } from "@/db/schema";

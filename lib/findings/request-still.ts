@@ -1,5 +1,6 @@
 // A finding's still: a pending row written in the finding's transaction, and the extract-still job
 // queued only after that transaction commits (a job must never look for a row that is not there yet).
+import "server-only";
 import type { DbOrTx } from "@/db/client";
 import { stills } from "@/db/schema";
 import { enqueue } from "@/lib/queue/jobs";

@@ -1,6 +1,7 @@
 // Edits a finding. The previous state stays in finding_revisions; the new version, its revision and
 // the custody event are written together. Moving a finding to another frame asks for a new still
 // (the old one is kept: it shows what the earlier version pointed at).
+import "server-only";
 import { and, eq, isNull } from "drizzle-orm";
 import { db } from "@/db/client";
 import { findingRevisions, findings } from "@/db/schema";

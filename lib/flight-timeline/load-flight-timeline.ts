@@ -1,5 +1,6 @@
 // A flight's timeline as the API serves it: the flight's live recordings (organisation-filtered) with
 // their trace summaries, through buildFlightTimeline.
+import "server-only";
 import { and, eq, isNull } from "drizzle-orm";
 import { db } from "@/db/client";
 import { flights, recordings, signalTraces } from "@/db/schema";

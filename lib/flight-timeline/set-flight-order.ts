@@ -2,6 +2,7 @@
 // in one transaction. The list must name exactly the flight's recordings (no more, no fewer, no
 // repeats), so an order made on a stale page cannot silently drop a file that arrived meanwhile.
 // { recorderOrder: true } puts the files back in the recorder's order (file times, then names).
+import "server-only";
 import { and, eq, isNull, sql } from "drizzle-orm";
 import { db } from "@/db/client";
 import { recordings } from "@/db/schema";

@@ -3,6 +3,7 @@
 // Pictures are delimited as ITU-T H.264 sections 7.4.1.2.3 (access unit order) and 7.4.1.2.4
 // (first VCL NAL unit of a new primary coded picture) describe.
 
+import "server-only";
 import { createReadStream } from "node:fs";
 import { AnnexBSplitter, type NalUnit } from "./annexb-scanner";
 import { describeLevel, describeProfile } from "./describe-profile";

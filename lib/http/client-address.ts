@@ -12,6 +12,7 @@
 // that many places from the right of [...X-Forwarded-For, socket address]; anything further left was
 // written by the client and is ignored. Common practice (RFC 7239 section 7.4 on forged values; the
 // same rule as Express's "trust proxy" hop count).
+import "server-only";
 import { env } from "@/lib/config/env";
 
 export const PEER_HEADER = "x-cairn-peer-address";

@@ -1,6 +1,7 @@
 // Who "the job's crew" is for notifications: the job's assigned pilot and reviewer, the pilots in
 // command of its flights, and anyone the caller adds (the uploader, the report's author), as long
 // as they are still members of the organisation. Client accounts are not crew.
+import "server-only";
 import { and, eq, inArray, ne } from "drizzle-orm";
 import { db } from "@/db/client";
 import { flights, jobs, memberships, users } from "@/db/schema";

@@ -1,6 +1,7 @@
 // Tells the job's crew that a recording finished processing (ready to review) or failed, with a
 // link to it. Safe to call twice for the same outcome (the worker may retry): one mail per outcome.
 // Never throws: a mail problem must not fail or retry the processing job that calls this.
+import "server-only";
 import { formatClockTime } from "@/lib/timecode/format-clock-time";
 import { and, eq } from "drizzle-orm";
 import { db } from "@/db/client";

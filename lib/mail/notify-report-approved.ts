@@ -1,5 +1,6 @@
 // Tells the job's crew (and the report's author) that a report version was approved, with a link
 // to the job. One mail per approved version, however often this is called. Never throws.
+import "server-only";
 import { and, eq } from "drizzle-orm";
 import { db } from "@/db/client";
 import { jobs, organisations, reports, users } from "@/db/schema";

@@ -1,4 +1,5 @@
 // Reads the local fake mail server's stored messages (development page and tests only).
+import "server-only";
 import { readdir, readFile } from "node:fs/promises";
 import path from "node:path";
 import { env } from "@/lib/config/env";

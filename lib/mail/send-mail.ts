@@ -1,4 +1,5 @@
 // Outgoing mail through nodemailer: the local fake SMTP server by default, real SMTP by SMTP_URL.
+import "server-only";
 import nodemailer, { type Transporter } from "nodemailer";
 import { env } from "@/lib/config/env";
 

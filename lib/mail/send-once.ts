@@ -1,6 +1,7 @@
 // Notifications are sent once per fact, even when the caller runs twice (a worker job retried after
 // a crash): a Redis key claims the fact before sending and is released if sending fails, so a later
 // call can try again. Without Redis, sending goes ahead: a repeated mail beats a lost one.
+import "server-only";
 import { env } from "@/lib/config/env";
 import { redis } from "@/lib/queue/redis";
 

@@ -1,6 +1,7 @@
 // Puts a finished file (a still, a report PDF) at its key in the store: copied beside its final
 // name, flushed, then renamed over it, so a reader never sees half a file and a crashed run leaves
 // at most a stray temporary file. Running the same job twice puts the same bytes there.
+import "server-only";
 import { constants } from "node:fs";
 import { copyFile, mkdir, open, rename, rm } from "node:fs/promises";
 import path from "node:path";

@@ -1,5 +1,6 @@
 // Finds the stored file a media URL names, inside one organisation only: another organisation's
 // file, a deleted recording's file or one not produced yet are all simply "not found".
+import "server-only";
 import { and, eq, inArray, isNull } from "drizzle-orm";
 import { db } from "@/db/client";
 import { jobs, recordings, renditions, reports, stills } from "@/db/schema";

@@ -1,6 +1,7 @@
 // A stored file (or a byte range of it) as a web stream with backpressure. Players abort requests on
 // every seek: cancelling the stream, or the request's abort signal, closes the file quietly. That is
 // routine, not an error, so nothing is logged for it.
+import "server-only";
 import type { ReadStream } from "node:fs";
 import { readKey } from "@/lib/storage/local-store";
 

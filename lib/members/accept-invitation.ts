@@ -1,5 +1,6 @@
 // Accepts an invitation: a new person gets an account with the name and password they chose; someone
 // who already has an account joins the organisation. Either way the invitation is used up, in one transaction.
+import "server-only";
 import { and, eq, isNull, ne } from "drizzle-orm";
 import { db } from "@/db/client";
 import { invitations, memberships, organisations, users } from "@/db/schema";

@@ -1,5 +1,6 @@
 // Invites a person by e-mail into the organisation with a role. A newer invitation to the same address
 // replaces any pending one, so only the latest link works.
+import "server-only";
 import { and, eq, isNull } from "drizzle-orm";
 import { db } from "@/db/client";
 import { invitations, memberships, users } from "@/db/schema";

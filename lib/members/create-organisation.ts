@@ -1,5 +1,6 @@
 // Creates an organisation and its first owner (user + owner membership) in one transaction: a failure
 // at any step leaves no organisation, no user and no membership behind.
+import "server-only";
 import { db } from "@/db/client";
 import { memberships, organisations, users } from "@/db/schema";
 import { ApiError } from "@/lib/api/errors";

@@ -1,4 +1,5 @@
 // Invitations of the organisation: list the pending ones, revoke one, and read what a link offers.
+import "server-only";
 import { and, desc, eq, isNull } from "drizzle-orm";
 import { db } from "@/db/client";
 import { invitations, organisations, users } from "@/db/schema";

@@ -1,6 +1,7 @@
 // Which of the organisation's clients a client account is tied to (membership_clients): set when an
 // owner invites the account, and changed by an owner on the members page. The crew is never tied:
 // it sees the whole organisation.
+import "server-only";
 import { and, eq, inArray } from "drizzle-orm";
 import { db, type DbOrTx } from "@/db/client";
 import { clients, membershipClients, memberships } from "@/db/schema";

@@ -1,5 +1,6 @@
 // Members of the organisation: list, change role, remove. An organisation always keeps at least one
 // owner: the last owner can be neither demoted nor removed (409).
+import "server-only";
 import { and, asc, eq, ilike, inArray, or, sql } from "drizzle-orm";
 import { db, type DbOrTx } from "@/db/client";
 import { jobs, memberships, users } from "@/db/schema";

@@ -3,6 +3,7 @@
 // time is someone opening the page without playing: the player's analytics report it, and the row is
 // kept (its first beacon may carry a share link's token that later beacons lack), but it is not a view
 // of the footage, so it is not listed (before, opening a recording listed a "view" of 0.0 s).
+import "server-only";
 import { and, eq, gt } from "drizzle-orm";
 import { afterCursor, keysetColumns, keysetOrder, pageOfRows, type KeyPart, type KeysetParams } from "@/lib/api/keyset";
 import { db } from "@/db/client";

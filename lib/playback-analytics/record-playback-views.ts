@@ -1,6 +1,7 @@
 // Stores view figures, one row per view (the SDK's view id), updated by every later beacon of that
 // view. A beacon may only add to a view of the same organisation, recording and viewer: a guessed or
 // replayed view id cannot overwrite someone else's row.
+import "server-only";
 import { and, eq, inArray, isNull, sql } from "drizzle-orm";
 import { db } from "@/db/client";
 import { playbackViews, recordings } from "@/db/schema";

@@ -3,6 +3,7 @@
 // token. The view counts for that share link only if the signature is ours, the grant is for this
 // recording, the link is still open and still shows it. Grants live 10 minutes while a view can
 // last longer, so for analytics a grant is accepted for a while after its expiry.
+import "server-only";
 import { and, eq, isNotNull } from "drizzle-orm";
 import { db } from "@/db/client";
 import { playbackViews } from "@/db/schema";

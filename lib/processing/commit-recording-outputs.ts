@@ -2,6 +2,7 @@
 // place, renditions upserted per (recording, kind), the signal trace, the recording's facts and state,
 // and the custody events (processing, one "derived" per rendition and one for the trace). Idempotent:
 // a second commit of a recording already "ready" does nothing, so a job run twice commits once.
+import "server-only";
 import { createHash } from "node:crypto";
 import { and, eq, notInArray, sql } from "drizzle-orm";
 import { db } from "@/db/client";

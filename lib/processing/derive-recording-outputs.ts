@@ -2,6 +2,7 @@
 // thumbnail sprite and its WebVTT track, the technical facts and, for raw H.264 streams, the signal
 // trace. No database and no queue here: the worker commits the result; the benchmark runs it bare.
 // The original is only ever opened for reading.
+import "server-only";
 import { createReadStream } from "node:fs";
 import { rm, stat, writeFile } from "node:fs/promises";
 import path from "node:path";

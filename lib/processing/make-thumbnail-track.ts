@@ -2,6 +2,7 @@
 // per interval and scales it into a numbered tile (its time= follows the input, so progress is
 // real); the second lays the tiles out row by row with the tile filter, exactly as
 // lib/vtt/plan-thumbnail-sprite.ts plans them, so every cue's #xywh box matches a tile.
+import "server-only";
 import { mkdir, readdir, rm, writeFile } from "node:fs/promises";
 import path from "node:path";
 import { buildThumbnailTrack } from "@/lib/vtt/build-thumbnail-track";

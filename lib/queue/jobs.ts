@@ -1,5 +1,6 @@
 // Every background job is one member of this map: name -> payload (ids only). The worker's handler
 // table is typed against it, so a job type without a handler does not compile.
+import "server-only";
 import { Queue, type JobsOptions } from "bullmq";
 import type IORedis from "ioredis";
 import { newRedis } from "./redis";

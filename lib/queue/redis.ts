@@ -1,5 +1,6 @@
 // Redis connections. Producers fail fast when Redis is away (enableOfflineQueue: false);
 // BullMQ workers need maxRetriesPerRequest: null (docs.bullmq.io, "Connections"; docs/library-notes.md).
+import "server-only";
 import IORedis, { type RedisOptions } from "ioredis";
 import { env } from "@/lib/config/env";
 

@@ -1,5 +1,6 @@
 // One click on a signal-trace interval logs the link event it marks: the event and its time come from
 // the stored trace, never from the browser; the pilot confirms the position and height in the form.
+import "server-only";
 import { and, eq, isNull, sql } from "drizzle-orm";
 import { db } from "@/db/client";
 import { rangeChecks, signalTraces } from "@/db/schema";

@@ -1,4 +1,5 @@
 // The facts of a flight that range checks are measured from, read inside the caller's organisation.
+import "server-only";
 import { and, eq, isNull } from "drizzle-orm";
 import { db, type DbOrTx } from "@/db/client";
 import { flights, recordings } from "@/db/schema";

@@ -1,4 +1,5 @@
 // The link events a flight's signal traces show, ready to be logged as range checks in one click.
+import "server-only";
 import { and, asc, eq, isNull } from "drizzle-orm";
 import { db } from "@/db/client";
 import { rangeChecks, recordings, signalTraces } from "@/db/schema";

@@ -1,5 +1,6 @@
 // Every active range check of one flight (or of all flights) with the names around it: what the CSV
 // export and the comparison chart read. Archived checks are left out of both.
+import "server-only";
 import { and, asc, desc, eq, sql } from "drizzle-orm";
 import { db } from "@/db/client";
 import { flights, jobs, rangeChecks, recordings, sites } from "@/db/schema";

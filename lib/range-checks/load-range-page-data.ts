@@ -1,6 +1,7 @@
 // What the range pages draw before any client-side fetch: the organisation's sites with coordinates
 // (for the calculator's plan) and its flights (to file range checks under). Read here, inside the
 // organisation, until the sites and flights APIs serve the same lists.
+import "server-only";
 import { and, asc, desc, eq, isNotNull, isNull } from "drizzle-orm";
 import { db } from "@/db/client";
 import { flights, jobs, sites } from "@/db/schema";

@@ -1,5 +1,6 @@
 // Range checks of the organisation's flights: list, read, create, edit, archive. The slant range and
 // the derived half of the position are always computed here, on the server, from the stored inputs.
+import "server-only";
 import { and, count, eq, isNull, type SQL } from "drizzle-orm";
 import { db } from "@/db/client";
 import { flights, linkEventEnum, rangeChecks, recordings } from "@/db/schema";

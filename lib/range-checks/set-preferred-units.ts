@@ -1,4 +1,5 @@
 // The ft/m choice is the person's, not the organisation's: it follows them into every workspace.
+import "server-only";
 import { eq } from "drizzle-orm";
 import { db } from "@/db/client";
 import { users } from "@/db/schema";

@@ -2,6 +2,7 @@
 // and never while the recording's job is under legal hold. The recording row stays (marked
 // deleted), and so does its whole custody trail; the deletion is itself a custody event naming
 // every file removed. A refused attempt is recorded too (deletion_refused), then refused.
+import "server-only";
 import { and, eq, isNull, ne } from "drizzle-orm";
 import { db } from "@/db/client";
 import { jobs, recordings, renditions, stills } from "@/db/schema";

@@ -1,4 +1,5 @@
 // One recording of the organisation, with its facts and tags; another organisation's answers 404.
+import "server-only";
 import { and, eq, isNull } from "drizzle-orm";
 import { db } from "@/db/client";
 import { flights, jobs, recordings, users } from "@/db/schema";

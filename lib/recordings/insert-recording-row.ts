@@ -3,6 +3,7 @@
 // in time order, while the browser uploads them in parallel and they finish in any order. Rows
 // already in the flight keep their relative order (the pilot may have arranged them by hand); the
 // new one goes after every row recorded no later than itself. Without a file time it goes last.
+import "server-only";
 import { and, eq, gte, isNull, lte, sql } from "drizzle-orm";
 import type { DbOrTx } from "@/db/client";
 import { recordings } from "@/db/schema";

@@ -1,6 +1,7 @@
 // Recordings of a flight or a job (or the whole organisation), for the recordings table: name,
 // size, kind, duration when known, processing state and progress, hash and tags; filtered, sorted
 // and paged on the server by keyset (lib/api/keyset.ts).
+import "server-only";
 import { and, count, eq, exists, ilike, isNull, or, sql, type SQL } from "drizzle-orm";
 import { z } from "zod";
 import { db } from "@/db/client";

@@ -1,6 +1,7 @@
 // Everything the recording page needs on first paint, read inside the member's organisation:
 // the recording and its timing, its derived files as media-route URLs, and the other files of its
 // flight in recorder order (the signal trace and flight timeline fetch their own data).
+import "server-only";
 import { and, asc, eq, isNull } from "drizzle-orm";
 import { db } from "@/db/client";
 import * as s from "@/db/schema";

@@ -1,5 +1,6 @@
 // The recording a finding is marked on, read inside the caller's organisation, with the timing that
 // turns frames into seconds and the flight's launch point that distances are measured from.
+import "server-only";
 import { and, eq, isNull } from "drizzle-orm";
 import { db, type DbOrTx } from "@/db/client";
 import { flights, organisations, recordings } from "@/db/schema";

@@ -1,4 +1,5 @@
 // Where a recording's processing stands, as the pages show it ("Processing 42 %", "Failed: ...").
+import "server-only";
 import { and, eq, isNull } from "drizzle-orm";
 import { db } from "@/db/client";
 import { recordings } from "@/db/schema";

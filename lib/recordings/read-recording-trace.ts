@@ -1,5 +1,6 @@
 // The signal trace of one recording as the pages need it: intervals on both clocks, the summary, and
 // why there is none when there is none.
+import "server-only";
 import { and, eq, isNull } from "drizzle-orm";
 import { db } from "@/db/client";
 import { recordings, signalTraces } from "@/db/schema";

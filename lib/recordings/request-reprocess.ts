@@ -2,6 +2,7 @@
 // per-recording fps override, put the recording back to "waiting", and queue its job again. Refused
 // while it is being processed (the running job would not see the new rate), and for a ready recording
 // whose job is under a legal hold.
+import "server-only";
 import { and, eq, isNull, sql } from "drizzle-orm";
 import { db } from "@/db/client";
 import { recordings } from "@/db/schema";

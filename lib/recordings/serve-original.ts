@@ -3,6 +3,7 @@
 // (RFC 9530 Repr-Digest, and as hex for people comparing with sha256sum). Each GET is a custody
 // event. The bytes are hashed again on their way out: if the stored file no longer matches its
 // recorded hash, the transfer is broken off instead of completing with altered bytes.
+import "server-only";
 import { contentLengthHeaders } from "@/lib/http/content-length-carrier";
 import { Readable, Transform } from "node:stream";
 import { pipeline } from "node:stream/promises";

@@ -1,5 +1,6 @@
 // Free labels on recordings: adding a tag creates it in the organisation on first use (matching an
 // existing tag regardless of letter case), removing one only unlinks it from the recording.
+import "server-only";
 import { and, asc, eq, isNull, sql } from "drizzle-orm";
 import { z } from "zod";
 import { db } from "@/db/client";

@@ -1,6 +1,7 @@
 // An owner approves one built version. From then on it is immutable: no build touches it, the
 // database refuses any change to its row (migration 0002), and the custody log carries its PDF's SHA-256. The stored file is hashed again first: approval vouches for
 // the bytes a client will download, not for what the database remembers of them.
+import "server-only";
 import { createReadStream } from "node:fs";
 import { and, eq } from "drizzle-orm";
 import { db } from "@/db/client";

@@ -2,6 +2,7 @@
 // with its stored PDF's key, size and SHA-256, and the build goes into the custody chain. Only a
 // version still "building" is committed; anything else (approved, failed, rebuilt by another run)
 // throws, so the job fails instead of overwriting a version that moved on, and nothing is recorded.
+import "server-only";
 import { and, eq } from "drizzle-orm";
 import { db } from "@/db/client";
 import { reports } from "@/db/schema";

@@ -1,4 +1,5 @@
 // The job a report page is about, inside the member's organisation (null: not found there).
+import "server-only";
 import { and, eq } from "drizzle-orm";
 import { db } from "@/db/client";
 import { clients, jobs, sites } from "@/db/schema";

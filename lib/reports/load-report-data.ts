@@ -1,6 +1,7 @@
 // Gathers one job's report from the database: cover facts, the crew, flights and recordings with
 // their original hashes, and every live finding with its moment, still and position. Read in one
 // repeatable-read transaction, so the counts and the findings listed agree with each other.
+import "server-only";
 import { and, asc, desc, eq, inArray, isNull } from "drizzle-orm";
 import { db } from "@/db/client";
 import * as s from "@/db/schema";

@@ -1,6 +1,7 @@
 // Renders a report's data to PDF bytes. Stills are read from the store here, once each.
 // @react-pdf/renderer is loaded with a dynamic import(): the worker runs as CommonJS under tsx, where
 // a static import becomes a require() that cannot load the library's import-only dependencies.
+import "server-only";
 import { readFile } from "node:fs/promises";
 import { createElement } from "react";
 import type { ReactElement } from "react";

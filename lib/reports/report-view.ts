@@ -1,4 +1,5 @@
 // What the API shows of a report version (never the whole row).
+import "server-only";
 import { and, desc, eq, type SQL } from "drizzle-orm";
 import { alias } from "drizzle-orm/pg-core";
 import { db, type DbOrTx } from "@/db/client";

@@ -3,6 +3,7 @@
 // One build at a time per job: a second request while one is queued or building is refused, unless
 // that build has shown no sign of life for longer than the queue would ever keep trying it (its worker
 // died for good): then it is marked failed and the new version goes ahead.
+import "server-only";
 import { and, eq, inArray, max } from "drizzle-orm";
 import { db } from "@/db/client";
 import { jobs, reports } from "@/db/schema";

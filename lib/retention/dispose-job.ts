@@ -4,6 +4,7 @@
 // packages other than a final one, which keeps its own keep date so it can still be handed over); the
 // rows and the whole custody trail stay, and the disposal adds to it: one event per recording with the
 // SHA-256 of each file destroyed, and one for the job naming every file and who confirmed.
+import "server-only";
 import { and, eq, inArray, isNull, ne, notInArray } from "drizzle-orm";
 import { db } from "@/db/client";
 import { clients, evidencePackages, jobs, organisations, recordings, renditions, reports, sites, stills, users } from "@/db/schema";

@@ -1,6 +1,7 @@
 // Closed jobs and when their evidence falls due for disposal, read for one organisation (the
 // disposal list) or for all of them (the reminder sweep). A job without any retention period set has
 // no disposal date and is not listed; a disposed job is not listed either.
+import "server-only";
 import { and, desc, eq, inArray, isNotNull, isNull } from "drizzle-orm";
 import { db } from "@/db/client";
 import { clients, disposalReminders, evidencePackages, jobs, organisations, sites } from "@/db/schema";

@@ -5,6 +5,7 @@
 // (lib/mail/send-once.ts). When the job is found late, only the nearest lead that has opened is sent
 // (a job found 5 days ahead gets the 7-day reminder, not also the 30-day one). A job under legal hold
 // is not disposed of while the hold lasts, so it gets no reminder. Never destroys anything.
+import "server-only";
 import { and, eq } from "drizzle-orm";
 import { db } from "@/db/client";
 import { disposalReminders, memberships, users } from "@/db/schema";

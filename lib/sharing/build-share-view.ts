@@ -1,5 +1,6 @@
 // Everything the client's page shows for one link, with fresh signed addresses for each file.
 // Only what the scope holds goes in: the page cannot point at anything else.
+import "server-only";
 import { and, eq, inArray } from "drizzle-orm";
 import { db } from "@/db/client";
 import { jobs, renditions, sites } from "@/db/schema";

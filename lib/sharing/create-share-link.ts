@@ -1,6 +1,7 @@
 // Creates a share link: checks that every target belongs to the job, stores the token's hash (never
 // the token) and the passcode's bcrypt hash, records the "share" custody event in the same
 // transaction, then mails the recipients. The token is returned once, to the sender, and forgotten.
+import "server-only";
 import { and, eq, inArray, isNull } from "drizzle-orm";
 import { db } from "@/db/client";
 import { findings, jobs, recordings, reports, shareLinks } from "@/db/schema";

@@ -1,5 +1,6 @@
 // A job's share links as the sender sees them: state, recipients, and how often each was opened
 // and downloaded. Never the token hash or the passcode hash.
+import "server-only";
 import { and, count as countRows, desc, eq, sql } from "drizzle-orm";
 import { afterCursor, keysetColumns, keysetOrder, pageOfRows, type KeyPart, type KeysetParams } from "@/lib/api/keyset";
 import { db } from "@/db/client";

@@ -1,5 +1,6 @@
 // What a job offers to share: its recordings (not deleted), live findings and approved report
 // versions (a draft is never shared). The share form picks from these; create-share-link checks the choice again.
+import "server-only";
 import { and, asc, desc, eq, isNull } from "drizzle-orm";
 import { db } from "@/db/client";
 import { findingCategories, findings, jobs, recordings, reports } from "@/db/schema";

@@ -1,6 +1,7 @@
 // Every open and download through a share link leaves two records in one transaction: a row in the
 // link's own event list (what the sender sees as opens and downloads) and a custody event (the
 // hash-chained log of who handled which evidence).
+import "server-only";
 import { db } from "@/db/client";
 import { shareLinkEvents } from "@/db/schema";
 import { recordCustodyEvent, type RequestFacts } from "@/lib/custody/record-custody-event";

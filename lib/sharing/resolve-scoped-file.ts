@@ -1,6 +1,7 @@
 // The stored file a media grant names, found only among what the link's scope holds right now.
 // A recording link asking for another recording's rendition, still, sprite or original gets null,
 // exactly like an id that does not exist.
+import "server-only";
 import { and, eq } from "drizzle-orm";
 import { db } from "@/db/client";
 import { recordings, renditions, stills } from "@/db/schema";

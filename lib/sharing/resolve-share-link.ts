@@ -1,6 +1,7 @@
 // A token from a URL -> the link it opens, or a refusal. Unknown, malformed and guessed tokens all
 // answer "unknown" the same way, so the answer says nothing about which links exist. Revoked and
 // expired links answer "gone": only someone who once held a working link can see that.
+import "server-only";
 import { eq } from "drizzle-orm";
 import { db } from "@/db/client";
 import { organisations, shareLinks } from "@/db/schema";

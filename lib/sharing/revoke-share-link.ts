@@ -1,6 +1,7 @@
 // Revokes a link: from the next request on, the page answers 410 and every signed media address
 // under it is refused (the media route re-reads the link each time). Revoking twice changes nothing
 // and records nothing the second time.
+import "server-only";
 import { and, eq, isNull } from "drizzle-orm";
 import { db } from "@/db/client";
 import { shareLinks } from "@/db/schema";

@@ -2,6 +2,7 @@
 // included, re-checks the whole chain: the signature and its expiry, the link's revocation and
 // expiry, and that the file is still inside the link's scope. A download (the report or an
 // original fetched from its first byte) is recorded; partial re-fetches and playback are not.
+import "server-only";
 import { Readable } from "node:stream";
 import { env } from "@/lib/config/env";
 import { parseRange } from "@/lib/http/parse-range";

@@ -1,4 +1,5 @@
 // Paths of the signed media route. The path carries the grant only: never the share token.
+import "server-only";
 import { env } from "@/lib/config/env";
 import { grantExpiry, signMediaGrant, type MediaGrantKind } from "./media-grant";
 

@@ -2,6 +2,7 @@
 // report inside the link's scope, within the link's own organisation and job only. Deleted
 // recordings (and the findings on them) drop out at once; nothing outside the scope is ever listed,
 // so nothing outside it can be addressed.
+import "server-only";
 import { and, desc, eq, inArray, isNull } from "drizzle-orm";
 import { db } from "@/db/client";
 import { findingCategories, findings, recordings, reports, stills } from "@/db/schema";

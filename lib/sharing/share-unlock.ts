@@ -1,5 +1,6 @@
 // Whether this browser has entered the right passcode for a link (links without one are open), and
 // the Set-Cookie that records it once it has.
+import "server-only";
 import { env } from "@/lib/config/env";
 import { parseCookies } from "@/lib/auth/read-session";
 import { signUnlock, unlockCookieName, UNLOCK_TTL_S, verifyUnlock } from "./unlock-grant";

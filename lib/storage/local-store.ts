@@ -1,6 +1,7 @@
 // The local disk store. Originals live at a key built from organisation and recording id
 // (lib/storage/storage-keys.ts), are made read-only once in place, and are never written again.
 // Derived files live in a per-recording folder that the worker replaces as a whole.
+import "server-only";
 import { constants, createReadStream } from "node:fs";
 import { chmod, copyFile, mkdir, open, rename, rm, stat, unlink } from "node:fs/promises";
 import path from "node:path";

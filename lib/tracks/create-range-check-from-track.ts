@@ -1,6 +1,7 @@
 // One click turns a link event of a signal trace into a range check with nothing typed: the event and its
 // time come from the stored trace, the position and height from the stored track at that moment under the
 // alignment in force (lib/tracks/load-flight-track.ts), and the range check says where its figures came from.
+import "server-only";
 import { and, eq } from "drizzle-orm";
 import { db } from "@/db/client";
 import { signalTraces } from "@/db/schema";

@@ -2,6 +2,7 @@
 // placed write-once in the store (lib/storage/local-store.ts), then the row and its custody event are
 // written in one transaction. If that transaction fails, the placed file is removed again: nothing is
 // ever half-saved.
+import "server-only";
 import { createHash, randomUUID } from "node:crypto";
 import { mkdtemp, rm, writeFile } from "node:fs/promises";
 import os from "node:os";

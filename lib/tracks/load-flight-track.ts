@@ -2,6 +2,7 @@
 // as evidence, the alignment in force (the newest stored one, or else the proposal from file times),
 // the track drawn on the site plan with the link state at each point, and the ground distance, height
 // and slant range at every link event of the signal traces and at every finding.
+import "server-only";
 import { and, asc, desc, eq, inArray, isNull } from "drizzle-orm";
 import { db } from "@/db/client";
 import * as s from "@/db/schema";

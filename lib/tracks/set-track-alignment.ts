@@ -1,6 +1,7 @@
 // Stores the alignment of a flight's track with its recordings: either the proposal from file times,
 // accepted as it is, or the pilot's match of a frame to a track point. Each is a new row with who set it
 // and when, and a custody event in the same transaction (lib/tracks/align-track.ts explains the sums).
+import "server-only";
 import { db } from "@/db/client";
 import { trackAlignments } from "@/db/schema";
 import { ApiError, notFound } from "@/lib/api/errors";

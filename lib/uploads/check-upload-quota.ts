@@ -3,6 +3,7 @@
 // creation; one being committed counts until its outcome is written, so for a moment it may count
 // twice, never zero times). Checked as an upload is recorded, one organisation's uploads at a time
 // (StagingStore's admit), so parallel creations cannot together overrun the quota.
+import "server-only";
 import { readdir } from "node:fs/promises";
 import { and, eq, isNull, sql } from "drizzle-orm";
 import { db } from "@/db/client";

@@ -1,5 +1,6 @@
 // Where an upload can go: the organisation's open jobs (not closed, not archived) with their
 // flights, newest first, for the uploader's job and flight pickers.
+import "server-only";
 import { and, asc, desc, eq, inArray, isNull, ne } from "drizzle-orm";
 import { db } from "@/db/client";
 import { flights, jobs, sites, users } from "@/db/schema";

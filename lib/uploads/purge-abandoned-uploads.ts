@@ -9,6 +9,7 @@
 //   - A file in the originals store with no recording row (a commit that died between placing
 //     the file and its transaction, with its upload info gone too) is deleted after a grace
 //     period; one whose upload can still be committed is left for that commit.
+import "server-only";
 import { readdir, stat, unlink } from "node:fs/promises";
 import path from "node:path";
 import { inArray, or } from "drizzle-orm";

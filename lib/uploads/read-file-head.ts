@@ -1,4 +1,5 @@
 // The first bytes of a file, for content sniffing; never more than `limit` bytes in memory.
+import "server-only";
 import { open } from "node:fs/promises";
 
 export async function readFileHead(file: string, limit: number): Promise<Uint8Array> {

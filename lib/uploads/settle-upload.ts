@@ -12,6 +12,7 @@
 // A failed transaction in 2 moves the file back to the staging folder: no file without a row.
 // A crash after 2 leaves a row in "waiting": the worker's reconciler enqueues it at start.
 // Step 2 is the single point where the upload counts as done; recordings.upload_id is unique.
+import "server-only";
 import { createReadStream } from "node:fs";
 import { chmod, rename } from "node:fs/promises";
 import { and, asc, eq, isNotNull, isNull, sql } from "drizzle-orm";

@@ -14,6 +14,7 @@
 // 4. A PATCH cut off by the client (a dropped link, a pause) keeps the bytes that arrived, and its
 //    running hash: they are a true prefix of the file, and the resumed upload goes on from there.
 //    A PATCH that breaks the protocol (more bytes than allowed) keeps nothing.
+import "server-only";
 import { createHash, type Hash } from "node:crypto";
 import { open, stat, unlink } from "node:fs/promises";
 import path from "node:path";

@@ -6,6 +6,7 @@
 // just then) and tus clients do not hand error bodies to the page reliably. It reads durable records
 // only: the recording row (stored, or filed as a linked duplicate), the custody event of a duplicate
 // the flight already held, or the tombstone in the staging folder (refused; kept 14 days).
+import "server-only";
 import { and, eq } from "drizzle-orm";
 import { db } from "@/db/client";
 import { flights, jobs, recordings } from "@/db/schema";

@@ -12,6 +12,7 @@
 //   onUploadCreate               metadata, names, job and flight of the organisation, size.
 //   store.create (admit)         the storage quota, checked and reserved in one step per organisation.
 //   onUploadFinish               the commit (settle-upload.ts); its outcome rides on the response.
+import "server-only";
 import { Server } from "@tus/server";
 import { env } from "@/lib/config/env";
 import { authorizeUploadRequest } from "./authorize-upload-request";

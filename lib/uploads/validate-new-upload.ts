@@ -2,6 +2,7 @@
 // not zero, the metadata is complete and its names are safe, and the job and flight belong to the
 // member's organisation. Returns the metadata to keep, with the organisation and uploader added by
 // the server. The quota comes next, as the upload is recorded (StagingStore's admit, upload-server.ts).
+import "server-only";
 import { and, eq } from "drizzle-orm";
 import { db } from "@/db/client";
 import { flights } from "@/db/schema";

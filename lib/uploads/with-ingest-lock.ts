@@ -2,6 +2,7 @@
 // the client's last PATCH or HEAD, the purge in the worker). A PostgreSQL session advisory lock on
 // a reserved connection: it is released when the work ends, and by the server itself if the
 // process holding it dies, so a crash never leaves an upload locked.
+import "server-only";
 import { sqlClient } from "@/db/client";
 
 export type LockResult<T> = { locked: true; value: T } | { locked: false };
