@@ -21,6 +21,7 @@ const NAV: { href: string; label: string; roles?: Role[] }[] = [
   { href: "/sites", label: "Sites" },
   { href: "/range", label: "Range & distance", roles: ["owner", "pilot", "reviewer"] },
   { href: "/custody", label: "Custody log", roles: ["owner", "pilot", "reviewer"] },
+  { href: "/disposal", label: "Disposal", roles: ["owner"] },
   { href: "/members", label: "Members", roles: ["owner"] },
 ];
 

@@ -1,10 +1,12 @@
 // Evidence packages as the workspace shows them: a job's packages, newest first, or one by id, within
 // one organisation. Columns are chosen; a package past its keep date reads as expired even before the
 // sweep has removed its file.
+import "server-only";
 import { and, desc, eq, type SQL } from "drizzle-orm";
 import { db } from "@/db/client";
 import { evidencePackages, users } from "@/db/schema";
 import { notFound } from "@/lib/api/errors";
+import { packageDownloadUrl } from "./package-urls";
 
 export type PackageView = {
   id: string;
@@ -45,7 +47,7 @@ const columns = {
 
 type Row = { [K in keyof typeof columns]: unknown } & { recordingIds: string[] | null; state: PackageView["state"]; expiresAt: Date; createdAt: Date };
 
-export const packageDownloadUrl = (id: string) => `/api/evidence-packages/${id}/download`;
+export { packageDownloadUrl };
 
 function view(r: Row, now: Date): PackageView {
   const state = r.state === "ready" && r.expiresAt <= now ? "expired" : r.state;
