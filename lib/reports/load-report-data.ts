@@ -6,7 +6,8 @@ import { and, asc, desc, eq, inArray, isNull } from "drizzle-orm";
 import { db } from "@/db/client";
 import * as s from "@/db/schema";
 import { notFound } from "@/lib/api/errors";
-import { ALTITUDE_CAUTION_THRESHOLD_M, ALTITUDE_LIMIT_CAUTION, LOCAL_RULES_CAUTION, VISUAL_LINE_OF_SIGHT_CAUTION, type Caution } from "@/lib/geo/cautions";
+import type { Caution } from "@/lib/geo/cautions";
+import { reportCautions } from "./report-cautions";
 import { metresToFeet } from "@/lib/geo/units";
 import { formatBytes } from "@/lib/uploads/format-bytes";
 import { ASSET_KIND_LABELS, JOB_STATUS_MEANING } from "@/lib/validation/work";
@@ -157,12 +158,12 @@ export async function loadReportData(organisationId: string, reportId: string): 
         }
       });
 
-      const maxAltitude = Math.max(0, ...flights.map((f) => f.maxAltitudeAglM ?? 0));
-      const cautions: Caution[] = [
-        ...(maxAltitude > ALTITUDE_CAUTION_THRESHOLD_M ? [ALTITUDE_LIMIT_CAUTION] : []),
-        VISUAL_LINE_OF_SIGHT_CAUTION,
-        LOCAL_RULES_CAUTION,
-      ];
+      // from every height the report prints (flights' maxima and findings' heights), and the radio-range
+      // caution when it prints a distance to the aircraft (lib/reports/report-cautions.ts)
+      const cautions: Caution[] = reportCautions({
+        heightsM: [...flights.map((f) => f.maxAltitudeAglM), ...views.map((v) => v.heightAglM)],
+        showsDistances: views.some((v) => v.groundDistanceM !== null || v.slantDistanceM !== null),
+      });
 
       // printed in the report, the chain's newest hash leaves Cairn with the client: an entry altered or
       // removed later would no longer lead to it

@@ -142,6 +142,8 @@ describe("building, reading back, approving and downloading a report", () => {
     // 135 m AGL flown: the altitude caution is printed (lib/geo/cautions.ts)
     expect(text).toContain("Caution: Above 120 m");
     expect(text).toContain("Caution: Keep the aircraft within visual line of sight");
+    // a finding's ground and slant distances from the launch point are printed: so is the radio-range caution
+    expect(text).toContain("Caution: Range figures describe the radio link");
     expect(images).toBeGreaterThanOrEqual(2); // the two ready stills are embedded
     // the custody log's newest entry at build time: a real entry of this organisation's chain, with
     // its exact hash, logged before the build's own entry
