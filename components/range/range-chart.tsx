@@ -58,7 +58,7 @@ export function RangeChart({ flightId, flightLabel, units }: { flightId: string 
           Could not load the chart: {(query.error as Error).message}
         </p>
       ) : !data ? (
-        <div className="h-80 animate-pulse rounded-md bg-paper-2" aria-label="Loading chart" />
+        <div className="h-80 animate-pulse rounded-md bg-paper-2" role="status" aria-label="Loading chart" />
       ) : data.points.length === 0 ? (
         <p className="rounded-md border border-dashed border-line px-4 py-6 text-center text-sm text-ink-2">
           No range checks to compare yet. Log one from a signal-trace event or with “New range check”.

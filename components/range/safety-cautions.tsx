@@ -6,7 +6,7 @@ export function SafetyCautions({ heightAglM }: { heightAglM: number | null }) {
   // without a height the altitude caution cannot be judged; the link and local-rule cautions always apply
   const cautions = rangeCheckCautions(heightAglM !== null && Number.isFinite(heightAglM) && heightAglM >= 0 ? heightAglM : 0);
   return (
-    <div className="flex flex-col gap-2" aria-label="Safety cautions">
+    <div role="group" className="flex flex-col gap-2" aria-label="Safety cautions">
       {cautions.map((c) => (
         <Caution key={c.id} summary={c.summary} detail={c.detail} sources={[...c.sources]} />
       ))}

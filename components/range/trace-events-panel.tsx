@@ -35,7 +35,7 @@ export function TraceEventsPanel({
           Could not load the signal trace: {(query.error as Error).message}
         </p>
       ) : !data ? (
-        <div className="h-16 animate-pulse rounded-md bg-paper-2" aria-label="Loading" />
+        <div className="h-16 animate-pulse rounded-md bg-paper-2" role="status" aria-label="Loading" />
       ) : data.items.length === 0 ? (
         <p className="rounded-md border border-dashed border-line px-4 py-4 text-sm text-ink-2">
           {data.tracedRecordings === 0

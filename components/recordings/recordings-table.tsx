@@ -307,7 +307,7 @@ export function RecordingsTable({
           Could not load the recordings: {(query.error as Error).message}
         </p>
       ) : query.isLoading ? (
-        <div className="h-32 animate-pulse rounded-md bg-paper-2" aria-label="Loading recordings" />
+        <div className="h-32 animate-pulse rounded-md bg-paper-2" role="status" aria-label="Loading recordings" />
       ) : total === 0 && !filtered ? (
         <EmptyState {...empty} />
       ) : (
@@ -326,7 +326,7 @@ export function RecordingsTable({
           noMatch="No recording matches these filters."
         />
       )}
-      <Pager page={page} pages={Math.max(1, Math.ceil(total / pageSize))} onPage={setPage} />
+      <Pager page={page} pages={Math.max(1, Math.ceil(total / pageSize))} onPage={setPage} of="recordings" />
     </div>
   );
 }

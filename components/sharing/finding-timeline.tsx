@@ -22,7 +22,7 @@ export function FindingTimeline({
   const pct = (s: number) => `${Math.min(100, Math.max(0, (s / durationSec) * 100))}%`;
   if (!(durationSec > 0)) return null;
   return (
-    <div className="mt-3" aria-label="Findings on the timeline">
+    <div role="group" className="mt-3" aria-label="Findings on the timeline">
       <div className="relative h-10 rounded-md border border-line bg-paper-2">
         <div className="absolute inset-y-0 left-0 bg-lake-soft" style={{ width: pct(currentSec) }} aria-hidden />
         {findings.map((f) => (

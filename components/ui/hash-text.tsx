@@ -10,12 +10,19 @@ export function HashText({ value, label = "SHA-256" }: { value: string; label?: 
       <span
         tabIndex={0}
         title={value}
-        aria-label={`${label} ${value}`}
         data-hash={value}
         className="rounded font-mono text-xs focus:bg-lake-soft"
       >
-        <span className="group-focus-within:hidden">{short}</span>
-        <span className="hidden break-all group-focus-within:inline">{value}</span>
+        {/* read out whole once; the short and long forms are for the eye */}
+        <span className="sr-only">
+          {label} {value}
+        </span>
+        <span aria-hidden className="group-focus-within:hidden">
+          {short}
+        </span>
+        <span aria-hidden className="hidden break-all group-focus-within:inline">
+          {value}
+        </span>
       </span>
       <button
         type="button"

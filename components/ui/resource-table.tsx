@@ -193,10 +193,11 @@ export function DataTable<T>({
 }
 
 /** Previous / next under a paged list. */
-export function Pager({ page, pages, onPage }: { page: number; pages: number; onPage: (p: number) => void }) {
+export function Pager({ page, pages, onPage, of }: { page: number; pages: number; onPage: (p: number) => void; of?: string }) {
   if (pages <= 1) return null;
   return (
-    <nav className="flex items-center gap-2 text-sm" aria-label="Pages">
+    // one page can hold several paged lists: each navigation landmark gets its own name
+    <nav className="flex items-center gap-2 text-sm" aria-label={of ? `Pages of ${of.toLowerCase()}` : "Pages"}>
       <button type="button" className="min-h-9 rounded border border-line px-3 py-1 disabled:opacity-40" disabled={page <= 1} onClick={() => onPage(page - 1)}>
         Previous
       </button>
@@ -286,7 +287,7 @@ export function ResourceTable<T>({
           Could not load this list: {(query.error as Error).message}
         </p>
       ) : query.isLoading ? (
-        <div className="h-32 animate-pulse rounded-md bg-paper-2" aria-label="Loading" />
+        <div className="h-32 animate-pulse rounded-md bg-paper-2" role="status" aria-label="Loading" />
       ) : total === 0 && !q ? (
         <EmptyState {...empty} />
       ) : (
@@ -302,7 +303,7 @@ export function ResourceTable<T>({
           noMatch={<>Nothing matches “{q}”.</>}
         />
       )}
-      <Pager page={page} pages={pages} onPage={setPage} />
+      <Pager page={page} pages={pages} onPage={setPage} of={caption ?? searchLabel} />
     </div>
   );
 }

@@ -18,7 +18,7 @@ import type { FileReport } from "./recording-uploader";
 // Uppy touches the browser when it starts: render it on the client only
 const RecordingUploader = dynamic(() => import("./recording-uploader").then((m) => m.RecordingUploader), {
   ssr: false,
-  loading: () => <div className="h-[420px] animate-pulse rounded-md bg-paper-2" aria-label="Loading the uploader" />,
+  loading: () => <div className="h-[420px] animate-pulse rounded-md bg-paper-2" role="status" aria-label="Loading the uploader" />,
 });
 
 function localToday(): string {

@@ -23,7 +23,7 @@ export function Invitations({ onNotice }: { onNotice: (n: Notice) => void }) {
         Pending invitations
       </h2>
       {list.isLoading ? (
-        <div className="h-16 animate-pulse rounded-md bg-paper-2" aria-label="Loading" />
+        <div className="h-16 animate-pulse rounded-md bg-paper-2" role="status" aria-label="Loading" />
       ) : list.isError ? (
         <p role="alert" className="rounded-md border border-bad bg-bad-soft px-3 py-2 text-sm">
           Could not load invitations: {(list.error as Error).message}
