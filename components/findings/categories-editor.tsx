@@ -3,10 +3,14 @@
 // and bring back the defaults. Archiving keeps existing findings' categories intact.
 import { useQuery, useQueryClient, useMutation } from "@tanstack/react-query";
 import { useState } from "react";
+import { useForm, type Resolver } from "react-hook-form";
+import { zodResolver } from "@hookform/resolvers/zod";
 import { fetchJson } from "@/components/fetch-json";
 import { Button } from "@/components/ui/button";
 import { Panel, FormError } from "@/components/ui/panel";
 import { ASSET_KINDS, ASSET_KIND_LABELS } from "@/lib/validation/work";
+import { categoryInput, type CategoryInput } from "@/lib/findings/category-input";
+import { useSave } from "@/components/work/use-save";
 import type { CategoryItem } from "./finding-types";
 
 export function CategoriesEditor({ onClose, canWrite }: { onClose(): void; canWrite: boolean }) {
@@ -17,35 +21,27 @@ export function CategoriesEditor({ onClose, canWrite }: { onClose(): void; canWr
     queryFn: () => fetchJson<{ items: CategoryItem[] }>(`/api/finding-categories?archived=${showArchived ? 1 : 0}`),
   });
   const refresh = () => qc.invalidateQueries({ queryKey: ["finding-categories"] });
-  const [name, setName] = useState("");
-  const [kind, setKind] = useState("");
-  const add = useMutation({
-    mutationFn: () => fetchJson("/api/finding-categories", { method: "POST", json: { name, assetKind: kind || null } }),
-    onSuccess: () => {
-      setName("");
-      void refresh();
-    },
+  type NewCategory = { name: string; assetKind: string };
+  const form = useForm<NewCategory, unknown, CategoryInput>({
+    resolver: zodResolver(categoryInput) as unknown as Resolver<NewCategory, unknown, CategoryInput>,
+    defaultValues: { name: "", assetKind: "" },
   });
+  const add = useSave<NewCategory, unknown, CategoryInput>({ url: "/api/finding-categories", invalidate: ["finding-categories"], setError: form.setError, onDone: () => form.reset({ name: "", assetKind: form.getValues("assetKind") }) });
+  const nameError = form.formState.errors.name?.message;
   const defaults = useMutation({ mutationFn: () => fetchJson<{ added: number }>("/api/finding-categories/defaults", { method: "POST" }), onSuccess: refresh });
 
   return (
     <Panel open title="Finding categories" onClose={onClose}>
       <p className="mb-3 text-sm text-ink-2">Categories filed under an asset kind are offered first on that kind of site; general ones everywhere.</p>
       {canWrite && (
-        <form
-          className="mb-4 flex flex-wrap items-end gap-2"
-          onSubmit={(e) => {
-            e.preventDefault();
-            add.mutate();
-          }}
-        >
+        <form className="mb-4 flex flex-wrap items-end gap-2" noValidate onSubmit={form.handleSubmit((v) => add.mutate(v))}>
           <label className="flex flex-1 flex-col gap-1 text-sm">
             <span className="font-medium">New category</span>
-            <input className="min-h-10 rounded-md border border-line bg-white px-3 text-sm dark:bg-paper-2" value={name} maxLength={80} onChange={(e) => setName(e.target.value)} />
+            <input className="min-h-10 rounded-md border border-line bg-white px-3 text-sm dark:bg-paper-2" maxLength={80} aria-invalid={nameError ? true : undefined} {...form.register("name")} />
           </label>
           <label className="flex flex-col gap-1 text-sm">
             <span className="font-medium">For</span>
-            <select className="min-h-10 rounded-md border border-line bg-white px-2 text-sm dark:bg-paper-2" value={kind} onChange={(e) => setKind(e.target.value)}>
+            <select className="min-h-10 rounded-md border border-line bg-white px-2 text-sm dark:bg-paper-2" {...form.register("assetKind")}>
               <option value="">Any asset</option>
               {ASSET_KINDS.map((k) => (
                 <option key={k} value={k}>
@@ -54,11 +50,16 @@ export function CategoriesEditor({ onClose, canWrite }: { onClose(): void; canWr
               ))}
             </select>
           </label>
-          <Button type="submit" busy={add.isPending} disabled={!name.trim()}>
+          <Button type="submit" busy={add.isPending}>
             Add category
           </Button>
+          {nameError && (
+            <p role="alert" className="w-full text-xs font-medium text-bad">
+              {nameError}
+            </p>
+          )}
           <div className="w-full">
-            <FormError error={add.error} />
+            <FormError error={Object.keys(form.formState.errors).length ? null : add.error} />
           </div>
         </form>
       )}

@@ -2,6 +2,9 @@
 // Marks a finding at the current frame or over a range, or edits one: severity (with meanings),
 // category, note, an optional box drawn on the picture, an optional position. The moment comes from
 // the player (buttons and the i / o shortcuts); the server checks it against the recording again.
+// The draft is state of the review room (the player's shortcuts and the box drawn on the picture
+// change it), so this form edits that draft rather than holding its own react-hook-form state; it
+// validates with the API's zod schema (lib/findings/finding-input.ts) before sending.
 import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { useState } from "react";
 import type { FrameBox } from "@/db/schema/review";
@@ -10,7 +13,8 @@ import { Button } from "@/components/ui/button";
 import { Field, SelectField, TextAreaField } from "@/components/ui/field";
 import { FormError } from "@/components/ui/panel";
 import { describeMoment, formatMoment } from "@/lib/findings/describe-moment";
-import { NOTE_MAX } from "@/lib/findings/finding-input";
+import { NOTE_MAX, createFindingInput, updateFindingInput } from "@/lib/findings/finding-input";
+import { fieldErrors } from "@/lib/validation/field-errors";
 import type { Severity } from "@/lib/findings/severity-scale";
 import type { FrameRate } from "@/lib/timecode/frame-rate";
 import { SeverityField } from "./severity-field";
@@ -93,6 +97,9 @@ export function FindingForm({
         longitude: num(draft.longitude),
         heightAglM: num(draft.heightAglM),
       };
+      // checked in the browser with the route's own schema first: the same messages, no round trip
+      const checked = editing ? updateFindingInput.safeParse({ ...body, version: draft.version }) : createFindingInput.safeParse({ ...body, recordingId });
+      if (!checked.success) throw new FetchError("Some fields are not valid", 422, fieldErrors(checked.error));
       return editing
         ? fetchJson<FindingItem>(`/api/findings/${draft.id}`, { method: "PATCH", json: { ...body, version: draft.version } })
         : fetchJson<FindingItem>("/api/findings", { method: "POST", json: { ...body, recordingId } });

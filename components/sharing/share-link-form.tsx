@@ -1,14 +1,19 @@
 "use client";
 // The "Share with client" form: what to share (scope and its items), who gets the mail, expiry,
 // optional passcode and whether originals may be downloaded. After creating, the address is shown
-// once to copy: Cairn keeps only its hash and cannot show it again.
+// once to copy: Cairn keeps only its hash and cannot show it again. Validated in the browser with
+// the route's own schema (lib/sharing/share-link-input.ts); the server's field errors land on the
+// same fields.
 import { useState } from "react";
-import { useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
+import { useForm, type Resolver } from "react-hook-form";
+import { zodResolver } from "@hookform/resolvers/zod";
+import { useQuery } from "@tanstack/react-query";
 import { Button } from "@/components/ui/button";
 import { Field, SelectField } from "@/components/ui/field";
 import { Panel } from "@/components/ui/panel";
-import { fetchJson, FetchError } from "@/components/fetch-json";
-import { SHARE_SCOPES, SHARE_SCOPE_LABELS, MAX_SHARE_DAYS, type ShareScope } from "@/lib/sharing/share-link-input";
+import { fetchJson } from "@/components/fetch-json";
+import { useSave } from "@/components/work/use-save";
+import { SHARE_SCOPES, SHARE_SCOPE_LABELS, MAX_SHARE_DAYS, shareLinkInput, type ShareLinkInput, type ShareScope } from "@/lib/sharing/share-link-input";
 import { SEVERITY_SCALE, type Severity } from "@/lib/findings/severity-scale";
 import { formatClockTime } from "@/lib/timecode/format-clock-time";
 import { SeverityStone } from "./severity-stone";
@@ -20,48 +25,53 @@ type Options = {
   reports: { id: string; version: number; state: "ready" | "approved" }[];
 };
 type Created = { id: string; url: string; expiresAt: string; mailed: string[]; mailError: string | null };
+/** what the fields hold; the schema turns it into the route's input */
+type FormValues = {
+  jobId: string;
+  scope: ShareScope;
+  label: string;
+  recordingId: string;
+  findingIds: string[];
+  reportId: string;
+  recipientEmails: string;
+  expiresInDays: string;
+  passcode: string;
+  allowOriginals: boolean;
+};
 
 export function ShareLinkForm({ jobId, onClose }: { jobId: string; onClose: () => void }) {
-  const qc = useQueryClient();
   const options = useQuery({ queryKey: ["share-options", jobId], queryFn: () => fetchJson<Options>(`/api/share-links/options?jobId=${jobId}`) });
-  const [scope, setScope] = useState<ShareScope>("findings");
-  const [label, setLabel] = useState("");
-  const [recordingId, setRecordingId] = useState("");
-  const [findingIds, setFindingIds] = useState<string[]>([]);
-  const [reportId, setReportId] = useState<string | null>(null);
-  const [recipients, setRecipients] = useState("");
-  const [days, setDays] = useState("14");
-  const [passcode, setPasscode] = useState("");
-  const [allowOriginals, setAllowOriginals] = useState(false);
-  const [copied, setCopied] = useState(false);
-
-  const approved = options.data?.reports.find((r) => r.state === "approved");
-  const chosenReport = reportId ?? approved?.id ?? "";
-  const create = useMutation({
-    mutationFn: () =>
-      fetchJson<Created>("/api/share-links", {
-        method: "POST",
-        json: {
-          jobId,
-          scope,
-          label,
-          recordingId: scope === "recording" ? recordingId || null : null,
-          findingIds: scope === "findings" ? findingIds : null,
-          reportId: scope === "job" ? null : chosenReport || null,
-          recipientEmails: recipients
-            .split(/[\s,;]+/)
-            .map((s) => s.trim())
-            .filter(Boolean),
-          expiresInDays: Number(days),
-          passcode: passcode || null,
-          allowOriginals: scope === "report" ? false : allowOriginals,
-        },
-      }),
-    onSuccess: () => qc.invalidateQueries({ queryKey: ["share-links", jobId] }),
+  const form = useForm<FormValues, unknown, ShareLinkInput>({
+    resolver: zodResolver(shareLinkInput) as unknown as Resolver<FormValues, unknown, ShareLinkInput>,
+    defaultValues: { jobId, scope: "findings", label: "", recordingId: "", findingIds: [], reportId: "", recipientEmails: "", expiresInDays: "14", passcode: "", allowOriginals: false },
   });
-  const fields = create.error instanceof FetchError ? (create.error.fields ?? {}) : {};
-  const err = (k: string) => Object.entries(fields).find(([key]) => key === k || key.startsWith(`${k}.`))?.[1]?.[0];
+  const [copied, setCopied] = useState(false);
+  const create = useSave<FormValues, Created, ShareLinkInput>({ url: "/api/share-links", invalidate: ["share-links"], setError: form.setError });
+  const scope = form.watch("scope");
+  const findingIds = form.watch("findingIds");
+  const passcode = form.watch("passcode");
+  const approved = options.data?.reports.find((r) => r.state === "approved");
+  // the newest approved version is attached unless the owner chooses otherwise
+  const reportField = form.register("reportId");
+  const reportTouched = form.formState.dirtyFields.reportId;
+  const chosenReport = reportTouched ? form.watch("reportId") : (approved?.id ?? "");
+  const e = form.formState.errors;
+  const errorOf = (k: keyof FormValues) => {
+    const v = e[k] as { message?: string } | Array<{ message?: string } | undefined> | undefined;
+    return Array.isArray(v) ? v.find(Boolean)?.message : v?.message;
+  };
   const nameOf = (id: string) => options.data?.recordings.find((r) => r.id === id)?.name ?? "";
+  const submit = form.handleSubmit((v) =>
+    create.mutate({
+      ...v,
+      // only the target the scope uses is sent
+      recordingId: v.scope === "recording" ? (v.recordingId ?? null) : null,
+      findingIds: v.scope === "findings" ? v.findingIds : null,
+      reportId: v.scope === "job" ? null : reportTouched ? (v.reportId ?? null) : (approved?.id ?? null),
+      allowOriginals: v.scope === "report" ? false : v.allowOriginals,
+    }),
+  );
+  const fieldErrors = Object.keys(e).length > 0;
 
   if (create.data) {
     const c = create.data;
@@ -97,15 +107,9 @@ export function ShareLinkForm({ jobId, onClose }: { jobId: string; onClose: () =
       {!options.data ? (
         <p className="text-sm text-ink-2">{options.error ? options.error.message : "Loading what this job can share…"}</p>
       ) : (
-        <form
-          className="flex flex-col gap-4"
-          onSubmit={(e) => {
-            e.preventDefault();
-            create.mutate();
-          }}
-        >
-          <Field label="Label" value={label} onChange={(e) => setLabel(e.target.value)} error={err("label")} hint="What the client sees as the title, e.g. the finding or the survey." maxLength={120} />
-          <SelectField label="What to share" value={scope} onChange={(e) => setScope(e.target.value as ShareScope)}>
+        <form className="flex flex-col gap-4" noValidate onSubmit={submit}>
+          <Field label="Label" {...form.register("label")} error={errorOf("label")} hint="What the client sees as the title, e.g. the finding or the survey." maxLength={120} />
+          <SelectField label="What to share" {...form.register("scope")}>
             {SHARE_SCOPES.map((s) => (
               <option key={s} value={s}>
                 {SHARE_SCOPE_LABELS[s].label}
@@ -115,7 +119,7 @@ export function ShareLinkForm({ jobId, onClose }: { jobId: string; onClose: () =
           <p className="-mt-2 text-xs text-ink-2">{SHARE_SCOPE_LABELS[scope].meaning}</p>
 
           {scope === "recording" && (
-            <SelectField label="Recording" value={recordingId} onChange={(e) => setRecordingId(e.target.value)} error={err("recordingId")}>
+            <SelectField label="Recording" {...form.register("recordingId")} error={errorOf("recordingId")}>
               <option value="">Choose a recording</option>
               {options.data.recordings.map((r) => (
                 <option key={r.id} value={r.id}>
@@ -133,7 +137,7 @@ export function ShareLinkForm({ jobId, onClose }: { jobId: string; onClose: () =
                   <input
                     type="checkbox"
                     checked={findingIds.includes(f.id)}
-                    onChange={(e) => setFindingIds(e.target.checked ? [...findingIds, f.id] : findingIds.filter((x) => x !== f.id))}
+                    onChange={(ev) => form.setValue("findingIds", ev.target.checked ? [...findingIds, f.id] : findingIds.filter((x) => x !== f.id), { shouldDirty: true })}
                   />
                   <SeverityStone severity={f.severity} />
                   <span>
@@ -143,15 +147,15 @@ export function ShareLinkForm({ jobId, onClose }: { jobId: string; onClose: () =
                   </span>
                 </label>
               ))}
-              {err("findingIds") && (
+              {errorOf("findingIds") && (
                 <p role="alert" className="text-xs font-medium text-bad">
-                  {err("findingIds")}
+                  {errorOf("findingIds")}
                 </p>
               )}
             </fieldset>
           )}
           {scope !== "job" && (
-            <SelectField label={scope === "report" ? "Report version" : "Attach a report version"} value={chosenReport} onChange={(e) => setReportId(e.target.value)} error={err("reportId")}>
+            <SelectField label={scope === "report" ? "Report version" : "Attach a report version"} {...reportField} value={chosenReport} error={errorOf("reportId")}>
               <option value="">{scope === "report" ? "Choose a version" : "No report"}</option>
               {options.data.reports.map((r) => (
                 <option key={r.id} value={r.id}>
@@ -160,16 +164,16 @@ export function ShareLinkForm({ jobId, onClose }: { jobId: string; onClose: () =
               ))}
             </SelectField>
           )}
-          <Field label="Recipients' e-mails" value={recipients} onChange={(e) => setRecipients(e.target.value)} error={err("recipientEmails")} hint="Separated by commas. Each gets the link by mail." />
-          <Field label="Expires after" type="number" min={1} max={MAX_SHARE_DAYS} unit="days" value={days} onChange={(e) => setDays(e.target.value)} error={err("expiresInDays")} />
-          <Field label="Passcode (optional)" type="text" autoComplete="off" value={passcode} onChange={(e) => setPasscode(e.target.value)} error={err("passcode")} hint="At least 6 characters. Send it separately from the link." />
+          <Field label="Recipients' e-mails" {...form.register("recipientEmails")} error={errorOf("recipientEmails")} hint="Separated by commas. Each gets the link by mail." />
+          <Field label="Expires after" type="number" min={1} max={MAX_SHARE_DAYS} unit="days" {...form.register("expiresInDays")} error={errorOf("expiresInDays")} />
+          <Field label="Passcode (optional)" type="text" autoComplete="off" {...form.register("passcode")} error={errorOf("passcode")} hint="At least 6 characters. Send it separately from the link." />
           {scope !== "report" && (
             <label className="flex min-h-10 items-center gap-2 text-sm">
-              <input type="checkbox" checked={allowOriginals} onChange={(e) => setAllowOriginals(e.target.checked)} />
+              <input type="checkbox" {...form.register("allowOriginals")} />
               Allow downloading the originals (with their SHA-256)
             </label>
           )}
-          {create.error && !Object.keys(fields).length && (
+          {create.error && !fieldErrors && (
             <p role="alert" className="rounded-md border border-bad bg-bad-soft px-3 py-2 text-sm">
               {create.error.message}
             </p>

@@ -2,6 +2,9 @@
 import { ZodError } from "zod";
 import { isServiceUnavailable, RETRY_AFTER_SECONDS, UNAVAILABLE_MESSAGE } from "./service-unavailable";
 import { describeErrorForLog } from "./describe-error-for-log";
+import { fieldErrors } from "@/lib/validation/field-errors";
+
+export { fieldErrors };
 
 export const ERROR_STATUS = {
   bad_request: 400,
@@ -38,15 +41,6 @@ export class ApiError extends Error {
 }
 
 export const notFound = (what = "Not found") => new ApiError("not_found", what);
-
-export function fieldErrors(err: ZodError): Record<string, string[]> {
-  const out: Record<string, string[]> = {};
-  for (const issue of err.issues) {
-    const key = issue.path.length ? issue.path.join(".") : "_";
-    (out[key] ??= []).push(issue.message);
-  }
-  return out;
-}
 
 export function errorBody(err: unknown): { status: number; body: ErrorBody } {
   if (err instanceof ApiError) {

@@ -1,4 +1,5 @@
-// A finding category as an organisation edits it.
+// A finding category as an organisation edits it; the categories editor
+// (components/findings/categories-editor.tsx) validates with the same schema.
 import { z } from "zod";
 import { ASSET_KINDS } from "@/lib/validation/work";
 import { name } from "@/lib/validation/common";
@@ -6,8 +7,8 @@ import { name } from "@/lib/validation/common";
 export const categoryInput = z
   .object({
     name: name(80),
-    // null: offered for every kind of asset
-    assetKind: z.enum(ASSET_KINDS).nullable().optional(),
+    // null (or "" from the form's "Any asset"): offered for every kind of asset
+    assetKind: z.preprocess((v) => (v === "" ? null : v), z.enum(ASSET_KINDS).nullable().optional()),
   })
   .strict();
 export const categoryPatch = categoryInput.partial().extend({ archived: z.boolean().optional() }).strict();

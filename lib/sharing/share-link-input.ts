@@ -1,5 +1,7 @@
 // What an owner fills in to share: scope and its target, expiry, optional passcode, download rights,
-// label and recipients. The scope decides which target field is required.
+// label and recipients. The scope decides which target field is required. The form
+// (components/sharing/share-link-form.tsx) validates with this same schema: an empty choice ("") reads
+// as none, and recipients typed as one line are split at commas, semicolons and spaces.
 import { z } from "zod";
 import { safeText, textRule } from "@/lib/validation/common";
 
@@ -16,16 +18,18 @@ export const SHARE_SCOPE_LABELS: Record<ShareScope, { label: string; meaning: st
 export const MAX_SHARE_DAYS = 90;
 
 const uuid = z.string().uuid();
+const noneIfEmpty = (v: unknown) => (v === "" ? null : v);
+const splitEmails = (v: unknown) => (typeof v === "string" ? v.split(/[\s,;]+/).map((x) => x.trim()).filter(Boolean) : v);
 
 export const shareLinkInput = z
   .object({
     jobId: uuid,
     scope: z.enum(SHARE_SCOPES),
-    recordingId: uuid.nullish(),
+    recordingId: z.preprocess(noneIfEmpty, uuid.nullish()),
     findingIds: z.array(uuid).max(200).nullish(),
-    reportId: uuid.nullish(),
+    reportId: z.preprocess(noneIfEmpty, uuid.nullish()),
     label: safeText().min(1, "Give the link a label you will recognise").max(120),
-    recipientEmails: z.array(z.string().trim().toLowerCase().email("Not an e-mail address").max(320)).max(20).default([]),
+    recipientEmails: z.preprocess(splitEmails, z.array(z.string().trim().toLowerCase().email("Not an e-mail address").max(320)).max(20, "At most 20 recipients").default([])),
     // a number, or digits typed into the form; z.coerce would also take `true` as 1 and "" as 0
     expiresInDays: z
       .preprocess((v) => (typeof v === "string" && /^\s*\d+\s*$/.test(v) ? Number(v) : v), z.number({ message: "A whole number of days" }).int("A whole number of days").min(1).max(MAX_SHARE_DAYS))

@@ -90,6 +90,16 @@ describe("sharing a finding's clip with a client", () => {
     await ownerPage.goto(`/custody/jobs/${job.jobId}`);
     await ownerPage.getByRole("button", { name: "Share with client" }).click();
     const form = ownerPage.getByRole("dialog", { name: "Share with client" });
+    // checked in the browser with the route's own schema before anything is sent
+    await form.getByLabel("What to share").selectOption("recording");
+    await form.getByLabel("Recipients' e-mails").fill("not-an-address");
+    let posted = 0;
+    ownerPage.on("request", (r) => void (r.method() === "POST" && r.url().endsWith("/api/share-links") && posted++));
+    await form.getByRole("button", { name: "Create share link" }).click();
+    await form.getByText("Give the link a label you will recognise").waitFor();
+    await form.getByText("Choose the recording to share").waitFor();
+    await form.getByText("Not an e-mail address").waitFor();
+    expect(posted).toBe(0);
     await form.getByLabel("Label").fill("Cracked mortar joint, valve tower");
     await form.getByLabel("What to share").selectOption("findings");
     await form.getByRole("checkbox").first().waitFor();
