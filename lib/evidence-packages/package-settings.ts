@@ -10,7 +10,7 @@ const schema = z.object({
 
 export type PackageSettings = { keepDays: number; diskReserveBytes: number };
 
-export function packageSettings(e: NodeJS.ProcessEnv = process.env): PackageSettings {
+export function packageSettings(e: Record<string, string | undefined> = process.env): PackageSettings {
   const p = schema.parse(Object.fromEntries(Object.entries(e).filter(([k, v]) => k.startsWith("EVIDENCE_PACKAGE_") && v !== undefined && v !== "")));
   return { keepDays: p.EVIDENCE_PACKAGE_KEEP_DAYS, diskReserveBytes: p.EVIDENCE_PACKAGE_DISK_RESERVE_BYTES };
 }

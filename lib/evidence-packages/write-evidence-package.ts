@@ -42,8 +42,9 @@ export class PackageVerifyError extends Error {}
 
 const selectionOf = (p: EvidencePackage) => ({ jobId: p.jobId, flightId: p.flightId, recordingIds: p.recordingIds });
 
-async function* trailEvents(organisationId: string, contents: PackageContents, pageSize = 2000): AsyncGenerator<ExportedEvent> {
-  const where = packageTrailCondition(organisationId, contents);
+/** The package's events up to `maxSeq`: the chain position counted and checkpointed before writing. */
+async function* trailEvents(organisationId: string, contents: PackageContents, maxSeq: number, pageSize = 2000): AsyncGenerator<ExportedEvent> {
+  const where = and(packageTrailCondition(organisationId, contents), sql`${custodyEvents.seq} <= ${maxSeq}`);
   let after = 0;
   for (;;) {
     const rows = await db()
@@ -145,7 +146,7 @@ export async function writeEvidencePackage(pkg: EvidencePackage, opts: { signal?
         const head = { organisation: { id: orgId, name: contents.organisation.name }, scope: `evidence-package-${pkg.id}`, job: { id: contents.job.id, title: contents.job.title }, exportedAt: now.toISOString(), exportedBy: maker?.email ?? null, hashRule: HASH_RULE };
         yield `${JSON.stringify(head).slice(0, -1)},"events":[`;
         let first = true;
-        for await (const e of trailEvents(orgId, contents)) {
+        for await (const e of trailEvents(orgId, contents, maxSeq)) {
           yield `${first ? "" : ","}\n${JSON.stringify(custodyJsonEvent(e))}`;
           first = false;
         }
@@ -157,7 +158,7 @@ export async function writeEvidencePackage(pkg: EvidencePackage, opts: { signal?
       size: null,
       open: textStream(async function* () {
         yield custodyCsvHeader();
-        for await (const e of trailEvents(orgId, contents)) yield custodyCsvRow(e);
+        for await (const e of trailEvents(orgId, contents, maxSeq)) yield custodyCsvRow(e);
       }),
     },
   );
