@@ -51,9 +51,12 @@ function FindingRow({ f, rate, selected, canWrite, onSelect, onEdit, onHistory }
   const start = describeMoment(f.startFrame, rate);
   return (
     <li className={`rounded-md border p-2 ${selected ? "border-lake bg-lake-soft" : "border-line"}`} data-testid="finding-item" data-finding-id={f.id}>
-      <button type="button" className="flex w-full gap-3 text-left" onClick={() => onSelect(f)} aria-label={`Go to ${level.label} finding at ${start.clock}, frame ${f.startFrame}`}>
+      {/* the still is a link of its own, so it sits beside the button rather than inside it (no nested controls);
+          the button's name is its visible text, after "Go to" for screen readers */}
+      <div className="flex w-full gap-3">
         <FindingStill finding={f} canWrite={canWrite} width={120} />
-        <span className="flex min-w-0 flex-col gap-0.5">
+        <button type="button" className="flex min-w-0 flex-1 flex-col gap-0.5 text-left" onClick={() => onSelect(f)}>
+          <span className="sr-only">Go to finding: </span>
           <span className="flex items-center gap-1.5">
             <FindingStone severity={f.severity} />
             <span className="font-semibold" data-testid="finding-severity">
@@ -64,8 +67,8 @@ function FindingRow({ f, rate, selected, canWrite, onSelect, onEdit, onHistory }
           <span className="font-mono text-xs">{formatMoment(start)}</span>
           {f.endFrame !== null && <span className="font-mono text-xs">to {formatMoment(describeMoment(f.endFrame, rate))}</span>}
           <FindingNote note={f.note} className="line-clamp-3" />
-        </span>
-      </button>
+        </button>
+      </div>
       <div className="mt-1 flex flex-wrap items-center gap-1 text-xs">
         <span className="text-ink-2">
           v{f.version} · {f.createdBy?.name ?? "unknown"}

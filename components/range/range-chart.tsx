@@ -3,6 +3,7 @@
 // has its own marker shape and a text label on every point, and the same figures follow as a table.
 import { useQuery } from "@tanstack/react-query";
 import { useState } from "react";
+import Link from "next/link";
 import { CartesianGrid, LabelList, Legend, ResponsiveContainer, Scatter, ScatterChart, Tooltip, XAxis, YAxis } from "recharts";
 import { SelectField } from "@/components/ui/field";
 import { fetchJson } from "@/components/fetch-json";
@@ -30,7 +31,14 @@ export function RangeChart({ flightId, flightLabel, units }: { flightId: string 
     event,
     points: (data?.points ?? [])
       .filter((p) => p.event === event)
-      .map((p) => ({ x: p.x, y: Number(fromMetres(p.slantRangeM, units).toFixed(1)), label: formatMetresIn(p.slantRangeM, units, 0), group: groups[p.groupIndex]?.label ?? "" })),
+      .map((p) => ({
+        x: p.x,
+        y: Number(fromMetres(p.slantRangeM, units).toFixed(1)),
+        label: formatMetresIn(p.slantRangeM, units, 0),
+        group: groups[p.groupIndex]?.label ?? "",
+        // shown in the tooltip: the flight and the frame the point measured
+        from: p.source ? `${p.source.flownOn}${p.source.recordingName ? `, ${p.source.recordingName}` : ""}${p.source.atFrame !== null ? ` frame ${p.source.atFrame}` : ""}` : "",
+      })),
   }));
 
   return (
@@ -46,7 +54,7 @@ export function RangeChart({ flightId, flightLabel, units }: { flightId: string 
             </option>
           ))}
         </SelectField>
-        <SelectField label="Range checks of" value={scope} onChange={(e) => setScope(e.target.value as "all" | "flight")}>
+        <SelectField label="Range checks of" value={scope} onChange={(e) => setScope(e.target.value as "all" | "flight")} className="max-w-full [&_select]:max-w-full">
           <option value="all">All flights</option>
           <option value="flight" disabled={!flightId}>
             This flight{flightLabel ? ` (${flightLabel})` : ""}
@@ -112,7 +120,7 @@ export function RangeChart({ flightId, flightLabel, units }: { flightId: string 
               <Caution key={c.id} summary={c.summary} detail={c.detail} sources={[...c.sources]} />
             ))}
           </div>
-          <div className="overflow-x-auto rounded-md border border-line">
+          <div className="max-w-[calc(100vw-2rem)] overflow-x-auto rounded-md border border-line">
             <table className="tabular w-full border-collapse text-sm" data-testid="range-chart-table">
               <caption className="sr-only">Slant range per link event and {CHART_DIMENSION_LABELS[by].toLowerCase()}</caption>
               <thead className="bg-paper-2">
@@ -156,6 +164,34 @@ export function RangeChart({ flightId, flightLabel, units }: { flightId: string 
               </tbody>
             </table>
           </div>
+          <details className="text-sm" data-testid="range-chart-sources">
+            <summary className="cursor-pointer">Where each point comes from ({data.points.length})</summary>
+            <ul className="mt-2 flex flex-col gap-1">
+              {data.points.map((p) => (
+                <li key={p.id} className="flex flex-wrap items-center gap-x-2">
+                  <LinkEventMark event={p.event} />
+                  <span className="font-mono">{formatMetresIn(p.slantRangeM, units)}</span>
+                  <span className="text-ink-2">{groups[p.groupIndex]?.label}</span>
+                  {p.source && (
+                    <>
+                      <Link href={`/flights/${p.source.flightId}`} className="text-lake underline">
+                        flight of {p.source.flownOn}
+                      </Link>
+                      {p.source.recordingId && p.source.recordingName ? (
+                        <Link href={`/recordings/${p.source.recordingId}${p.source.atFrame !== null ? `?frame=${p.source.atFrame}` : ""}`} className="text-lake underline">
+                          {p.source.recordingName}
+                          {p.source.atFrame !== null ? `, frame ${p.source.atFrame}` : ""}
+                          {p.source.atSec !== null ? ` (${p.source.atSec.toFixed(2)} s)` : ""}
+                        </Link>
+                      ) : (
+                        <span className="text-ink-2">no recording named</span>
+                      )}
+                    </>
+                  )}
+                </li>
+              ))}
+            </ul>
+          </details>
         </>
       )}
     </section>

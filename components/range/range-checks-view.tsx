@@ -140,7 +140,7 @@ export function RangeChecksView({ flights, flightId, canWrite, initialUnits }: {
               label="Flight"
               value={flight?.id ?? ""}
               onChange={(e) => router.replace(`/range/checks?flightId=${e.target.value}`)}
-              className="w-full max-w-xl"
+              className="w-full max-w-xl [&_select]:max-w-full"
             >
               {!flight && <option value="">Choose a flight</option>}
               {flights.map((f) => (

@@ -95,7 +95,8 @@ export function DataTable<T>({
   };
 
   return (
-    <div className="overflow-x-auto rounded-md border border-line" data-testid={testId}>
+    // never wider than the screen less the page's side padding: a wide table scrolls in its own box
+    <div className="max-w-[calc(100vw-2rem)] overflow-x-auto rounded-md border border-line" data-testid={testId}>
       <table className="tabular w-full border-collapse text-sm">
         {caption && <caption className="sr-only">{caption}</caption>}
         <thead className="bg-paper-2">

@@ -72,7 +72,7 @@ export function ClientTies({ userId, name, onNotice }: { userId: string; name: s
   return (
     <span className="text-sm">
       {ties.isLoading ? "…" : names.length ? names.join(", ") : <span className="text-bad">no client yet: sees nothing</span>}{" "}
-      <button type="button" className="text-lake underline" onClick={() => setEditing(ties.data?.clientIds ?? [])} aria-label={`Choose the clients ${name} sees`}>
+      <button type="button" className="text-lake underline" onClick={() => setEditing(ties.data?.clientIds ?? [])} aria-label={`Change the clients ${name} sees`}>
         Change
       </button>
     </span>
