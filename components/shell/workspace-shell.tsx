@@ -91,7 +91,8 @@ export function WorkspaceShell({
           <Link href="/today" aria-label="Cairn home" className="shrink-0">
             <CairnMark />
           </Link>
-          <span className="min-w-0 truncate rounded bg-paper-2 px-2 py-1 text-sm font-medium" data-testid="org-name">
+          {/* on a phone the organisation's name is the menu's first line, not a chip squeezed to one letter */}
+          <span className="hidden min-w-0 truncate rounded bg-paper-2 px-2 py-1 text-sm font-medium sm:inline" data-testid="org-name">
             {organisationName}
           </span>
           <nav
@@ -120,6 +121,7 @@ export function WorkspaceShell({
               id="workspace-nav-list"
               className={`${menuOpen ? "flex" : "hidden"} absolute inset-x-0 top-full z-30 flex-col gap-1 border-b border-line bg-paper p-2 shadow-lg lg:static lg:flex lg:flex-row lg:flex-wrap lg:border-0 lg:p-0 lg:shadow-none`}
             >
+              <li className="px-3 py-1 text-xs text-ink-2 sm:hidden">{organisationName}</li>
               {links.map((n) => {
                 const active = n === current;
                 return (
