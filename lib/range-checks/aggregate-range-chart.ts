@@ -2,21 +2,33 @@ import { LINK_EVENTS, type LinkEvent } from "./link-events";
 
 /**
  * Chart data for comparing how far the link held: slant range at first degradation, total loss and
- * reacquisition, grouped by one setup variable (camera orientation, antenna orientation or aircraft).
+ * reacquisition, grouped by one setup variable (camera orientation, antenna orientation, aircraft or site).
+ * Every point keeps where it came from (flight, recording, second and frame), so it can be traced back.
  * Each event gets its own horizontal offset inside a group, so the three sit side by side as a grouped
  * dot plot instead of on top of one another; the same numbers also come back as a table.
  */
 
-export const CHART_DIMENSIONS = ["cameraOrientation", "antennaOrientation", "aircraft"] as const;
+export const CHART_DIMENSIONS = ["cameraOrientation", "antennaOrientation", "aircraft", "site"] as const;
 export type ChartDimension = (typeof CHART_DIMENSIONS)[number];
 
 export const CHART_DIMENSION_LABELS: Record<ChartDimension, string> = {
   cameraOrientation: "Camera orientation",
   antennaOrientation: "Antenna orientation",
   aircraft: "Aircraft",
+  site: "Site",
 };
 
 export const NOT_RECORDED = "Not recorded";
+
+/** Where a range check came from: its flight, and the recording, second and frame of its link event. */
+export type ChartSource = {
+  readonly flightId: string;
+  readonly flownOn: string;
+  readonly recordingId: string | null;
+  readonly recordingName: string | null;
+  readonly atSec: number | null;
+  readonly atFrame: number | null;
+};
 
 export type ChartInputRow = {
   readonly id: string;
@@ -25,6 +37,8 @@ export type ChartInputRow = {
   readonly cameraOrientation: string | null;
   readonly antennaOrientation: string | null;
   readonly aircraft: string | null;
+  readonly site?: string | null;
+  readonly source?: ChartSource | null;
 };
 
 export type EventStats = { readonly count: number; readonly minM: number; readonly medianM: number; readonly maxM: number };
@@ -42,6 +56,7 @@ export type ChartPoint = {
   readonly x: number;
   readonly event: LinkEvent;
   readonly slantRangeM: number;
+  readonly source: ChartSource | null;
 };
 
 export type RangeChartData = {
@@ -67,7 +82,7 @@ export function aggregateRangeChart(rows: readonly ChartInputRow[], dimension: C
   const byKey = new Map<string, { label: string; rows: ChartInputRow[] }>();
   for (const row of rows) {
     if (!Number.isFinite(row.slantRangeM)) continue;
-    const raw = row[dimension]?.trim() ?? "";
+    const raw = (row[dimension] ?? "").trim();
     const key = raw ? foldKey(raw) : "";
     const group = byKey.get(key) ?? { label: raw ? raw.replace(/\s+/g, " ") : NOT_RECORDED, rows: [] };
     group.rows.push(row);
@@ -91,7 +106,7 @@ export function aggregateRangeChart(rows: readonly ChartInputRow[], dimension: C
     }
     groups.push({ index, label: group.label, stats });
     for (const r of group.rows) {
-      points.push({ id: r.id, groupIndex: index, x: index + EVENT_OFFSET[r.event], event: r.event, slantRangeM: r.slantRangeM });
+      points.push({ id: r.id, groupIndex: index, x: index + EVENT_OFFSET[r.event], event: r.event, slantRangeM: r.slantRangeM, source: r.source ?? null });
     }
   });
   return { dimension, groups, points };

@@ -5,7 +5,7 @@ import { flightFilter } from "@/lib/validation/range-checks";
 import { CHART_DIMENSIONS, aggregateRangeChart } from "@/lib/range-checks/aggregate-range-chart";
 import { loadRangeChartRows } from "@/lib/range-checks/load-range-check-export";
 
-const query = flightFilter.extend({ by: z.enum(CHART_DIMENSIONS, { message: "Compare by camera orientation, antenna orientation or aircraft" }).default("cameraOrientation") });
+const query = flightFilter.extend({ by: z.enum(CHART_DIMENSIONS, { message: "Compare by camera orientation, antenna orientation, aircraft or site" }).default("cameraOrientation") });
 
 export const GET = withOrg({ permission: "range.read" }, async ({ req, member }) => {
   const { flightId, by } = parseQuery(req, query);
