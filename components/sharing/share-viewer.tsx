@@ -222,6 +222,17 @@ export function ShareViewer({ initialView, gatePath, manifestPath }: { initialVi
             ) : (
               <p className="text-sm text-ink-2">No report is shared through this link yet.</p>
             )}
+            {view.evidencePackage && (
+              <div className="flex flex-wrap items-center gap-3 rounded-md border border-line p-3" data-testid="share-evidence-package">
+                <a href={manifestPath.replace(/\/manifest$/, "/package")} download className="inline-flex min-h-10 items-center rounded-md border border-lake bg-lake px-4 text-sm font-medium text-on-lake hover:bg-lake-dark">
+                  Download the evidence package (ZIP)
+                </a>
+                <span className="text-sm">
+                  {formatSize(view.evidencePackage.sizeBytes)} · kept until {view.evidencePackage.expiresAt.slice(0, 10)} · a BagIt bag: its README.txt tells how to check it with sha256sum -c
+                </span>
+                {view.evidencePackage.sha256 && <HashText value={view.evidencePackage.sha256} />}
+              </div>
+            )}
             {view.allowOriginals && view.recordings.length > 0 && (
               <div className="rounded-md border border-line p-3">
                 <p className="text-sm font-medium">Originals, byte for byte as recorded</p>

@@ -3,7 +3,7 @@
 import "server-only";
 import { and, eq, inArray } from "drizzle-orm";
 import { db } from "@/db/client";
-import { jobs, renditions, sites } from "@/db/schema";
+import { evidencePackages, jobs, renditions, sites } from "@/db/schema";
 import { SEVERITY_SCALE, type Severity } from "@/lib/findings/severity-scale";
 import { grantExpiry } from "./media-grant";
 import { loadShareScope } from "./share-scope";
@@ -48,6 +48,8 @@ export type ShareView = {
   recordings: ShareViewRecording[];
   findings: ShareViewFinding[];
   report: { id: string; version: number; sha256: string | null; sizeBytes: number | null; approved: boolean; url: string } | null;
+  /** the evidence package the link carries, once built and while kept (downloaded from /api/s/:token/package) */
+  evidencePackage: { sha256: string | null; sizeBytes: number | null; expiresAt: string } | null;
   /** when the signed addresses above stop working: the page asks for fresh ones before then */
   addressesExpireAt: string;
 };
@@ -115,6 +117,17 @@ export async function buildShareView(link: ResolvedShareLink, nowMs = Date.now()
             url: sign("report", scope.report.id),
           }
         : null,
+    evidencePackage: await sharedPackage(link, nowMs),
     addressesExpireAt: new Date(grantExpiry(nowMs) * 1000).toISOString(),
   };
+}
+
+async function sharedPackage(link: ResolvedShareLink, nowMs: number): Promise<ShareView["evidencePackage"]> {
+  if (!link.evidencePackageId) return null;
+  const [p] = await db()
+    .select({ state: evidencePackages.state, sha256: evidencePackages.sha256, sizeBytes: evidencePackages.sizeBytes, expiresAt: evidencePackages.expiresAt })
+    .from(evidencePackages)
+    .where(and(eq(evidencePackages.id, link.evidencePackageId), eq(evidencePackages.organisationId, link.organisationId), eq(evidencePackages.jobId, link.jobId)));
+  if (!p || p.state !== "ready" || p.expiresAt.getTime() <= nowMs) return null;
+  return { sha256: p.sha256, sizeBytes: p.sizeBytes, expiresAt: p.expiresAt.toISOString() };
 }

@@ -17,6 +17,8 @@ import { closeQueues } from "@/lib/queue/jobs";
 import { closeRedis } from "@/lib/queue/redis";
 import { startWorker, type RunningWorker } from "@/worker/start-worker";
 import { generateShareToken, hashShareToken } from "@/lib/sharing/share-token";
+import { resolveShareLink } from "@/lib/sharing/resolve-share-link";
+import { buildShareView } from "@/lib/sharing/build-share-view";
 import { makeFlight, makeJob } from "@/tests/support/factories";
 import { demoActors, demoOrganisationId, req, route, type Actor, type DemoActorKey } from "@/tests/support/session";
 import { waitJobs } from "@/tests/support/wait-jobs";
@@ -196,6 +198,12 @@ describe("a built package", () => {
     expect((await attach("reviewer", { shareLinkId: link.id })).status).toBe(403);
     expect((await attach("other", { shareLinkId: link.id })).status).toBe(404);
     expect((await attach("owner", { shareLinkId: link.id })).status).toBe(200);
+
+    // the share page offers it, with its SHA-256
+    const resolved = await resolveShareLink(token);
+    expect(resolved.kind).toBe("open");
+    const view = await buildShareView((resolved as { link: Parameters<typeof buildShareView>[0] }).link);
+    expect(view.evidencePackage).toMatchObject({ sha256: pkg.sha256, sizeBytes: pkg.sizeBytes });
 
     const res = await viaLink();
     expect(res.status).toBe(200);
