@@ -40,7 +40,7 @@ export function DistanceChart({ points, events, nowT, units }: { points: Display
   const minutes = (t1 - t0) / 60_000;
   return (
     <figure className="flex flex-col gap-1">
-      <svg viewBox={`0 0 ${W} ${H}`} className="w-full rounded-md border border-line bg-paper" role="img" aria-label={`Ground distance from the launch point over ${minutes.toFixed(1)} minutes of track, with the link state under it`} data-testid="distance-chart">
+      <svg viewBox={`0 0 ${W} ${H}`} className="w-full max-w-3xl rounded-md border border-line bg-paper" role="img" aria-label={`Ground distance from the launch point over ${minutes.toFixed(1)} minutes of track, with the link state under it`} data-testid="distance-chart">
         <defs>
           <pattern id={hatch} width="6" height="6" patternUnits="userSpaceOnUse" patternTransform="rotate(45)">
             <line x1="0" y1="0" x2="0" y2="6" className="stroke-warn" strokeWidth="2.5" />
