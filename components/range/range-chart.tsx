@@ -120,7 +120,7 @@ export function RangeChart({ flightId, flightLabel, units }: { flightId: string 
               <Caution key={c.id} summary={c.summary} detail={c.detail} sources={[...c.sources]} />
             ))}
           </div>
-          <div className="max-w-[calc(100vw-2rem)] overflow-x-auto rounded-md border border-line">
+          <div className="relative max-w-[calc(100vw-2rem)] overflow-x-auto rounded-md border border-line">
             <table className="tabular w-full border-collapse text-sm" data-testid="range-chart-table">
               <caption className="sr-only">Slant range per link event and {CHART_DIMENSION_LABELS[by].toLowerCase()}</caption>
               <thead className="bg-paper-2">

@@ -95,8 +95,9 @@ export function DataTable<T>({
   };
 
   return (
-    // never wider than the screen less the page's side padding: a wide table scrolls in its own box
-    <div className="max-w-[calc(100vw-2rem)] overflow-x-auto rounded-md border border-line" data-testid={testId}>
+    // never wider than the screen less the page's side padding: a wide table scrolls in its own box; "relative"
+    // keeps the screen-reader-only header texts (absolutely placed) inside that box, or they widen the page
+    <div className="relative max-w-[calc(100vw-2rem)] overflow-x-auto rounded-md border border-line" data-testid={testId}>
       <table className="tabular w-full border-collapse text-sm">
         {caption && <caption className="sr-only">{caption}</caption>}
         <thead className="bg-paper-2">

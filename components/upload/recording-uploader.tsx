@@ -123,11 +123,18 @@ export function RecordingUploader({ jobId, flightId, maxFileBytes, onReport }: {
       relativePath: (file.meta.relativePath as string | null) ?? null,
       size: typeof file.size === "number" ? file.size : undefined,
     });
+    // Uppy keeps a widget-wide error ("Upload failed") after the failed file is gone, and sets it again
+    // when the batch ends: cleared whenever no file left in the widget has an error
+    const clearStaleError = () =>
+      setTimeout(() => {
+        if (uppy.getState().error && !uppy.getFiles().some((f) => f.error)) uppy.setState({ error: null });
+      });
     // off the widget, with a word in its message area: the file cannot be accepted, so no "Retry"
     const takeOff = (file: UppyFile<Meta, Body>, reason: string) => {
       setTimeout(() => {
         if (uppy.getFile(file.id)) uppy.removeFile(file.id);
         uppy.info(`Refused: ${reason}`, "error", 8_000);
+        clearStaleError();
       });
     };
     const onSuccess = (file: UppyFile<Meta, Body> | undefined, response: { uploadURL?: string }) => {
@@ -158,7 +165,11 @@ export function RecordingUploader({ jobId, flightId, maxFileBytes, onReport }: {
     uppy.on("file-added", onAdded);
     uppy.on("upload-retry", onAdded as never);
     uppy.on("retry-all", onRetryAll as never);
+    uppy.on("complete", clearStaleError);
+    uppy.on("error", clearStaleError);
     return () => {
+      uppy.off("complete", clearStaleError);
+      uppy.off("error", clearStaleError);
       uppy.off("upload-success", onSuccess);
       uppy.off("upload-error", onError as never);
       uppy.off("file-added", onAdded);
