@@ -39,6 +39,7 @@ export const EVIDENCE_LABELS: Record<string, string> = {
   report: "Report",
   share_link: "Share link",
   job: "Job",
+  track: "Flight track",
 };
 
 /** Plain words for the files Cairn derives from a recording (db/schema/enums.ts rendition_kind). */
