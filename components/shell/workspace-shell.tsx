@@ -1,6 +1,6 @@
 "use client";
 // The signed-in frame: navigation, organisation name, user menu (organisation switcher, sign-out), dim toggle.
-// Below 1024 px the navigation folds behind a "Menu" button (a disclosure: aria-expanded, Escape closes
+// Below 1280 px the navigation folds behind a "Menu" button (a disclosure: aria-expanded, Escape closes
 // it and returns focus to the button), so a phone's header stays one row instead of three.
 import Link from "next/link";
 import { usePathname } from "next/navigation";
@@ -87,12 +87,12 @@ export function WorkspaceShell({
         Skip to content
       </a>
       <header className="relative border-b border-line bg-paper">
-        <div className="mx-auto flex max-w-7xl items-center gap-2 px-4 py-2 lg:gap-4">
+        <div className="mx-auto flex max-w-7xl items-center gap-2 px-4 py-2 xl:gap-4">
           <Link href="/today" aria-label="Cairn home" className="shrink-0">
             <CairnMark />
           </Link>
-          {/* on a phone the organisation's name is the menu's first line, not a chip squeezed to one letter */}
-          <span className="hidden min-w-0 truncate rounded bg-paper-2 px-2 py-1 text-sm font-medium sm:inline" data-testid="org-name">
+          {/* the organisation's name: a chip where the row has room, else the menu's first line and the user menu */}
+          <span className="hidden min-w-0 truncate rounded bg-paper-2 px-2 py-1 text-sm font-medium sm:inline xl:hidden 2xl:inline" data-testid="org-name">
             {organisationName}
           </span>
           <nav
@@ -107,7 +107,7 @@ export function WorkspaceShell({
             <button
               ref={menuButton}
               type="button"
-              className="inline-flex min-h-10 items-center gap-2 rounded-md border border-line px-3 text-sm lg:hidden"
+              className="inline-flex min-h-10 items-center gap-2 rounded-md border border-line px-3 text-sm xl:hidden"
               aria-expanded={menuOpen}
               aria-controls="workspace-nav-list"
               onClick={() => setMenuOpen(!menuOpen)}
@@ -119,7 +119,7 @@ export function WorkspaceShell({
             </button>
             <ul
               id="workspace-nav-list"
-              className={`${menuOpen ? "flex" : "hidden"} absolute inset-x-0 top-full z-30 flex-col gap-1 border-b border-line bg-paper p-2 shadow-lg lg:static lg:flex lg:flex-row lg:flex-wrap lg:border-0 lg:p-0 lg:shadow-none`}
+              className={`${menuOpen ? "flex" : "hidden"} absolute inset-x-0 top-full z-30 flex-col gap-1 border-b border-line bg-paper p-2 shadow-lg xl:static xl:flex xl:flex-row xl:flex-wrap xl:gap-0.5 xl:border-0 xl:p-0 xl:shadow-none`}
             >
               <li className="px-3 py-1 text-xs text-ink-2 sm:hidden">{organisationName}</li>
               {links.map((n) => {
@@ -129,7 +129,7 @@ export function WorkspaceShell({
                     <Link
                       href={n.href}
                       aria-current={active ? "page" : undefined}
-                      className={`block rounded-md px-3 py-2 text-sm ${active ? "bg-lake text-on-lake" : "hover:bg-paper-2"}`}
+                      className={`block rounded-md px-3 py-2 text-sm xl:px-2.5 ${active ? "bg-lake text-on-lake" : "hover:bg-paper-2"}`}
                     >
                       {n.label}
                     </Link>
@@ -150,11 +150,12 @@ export function WorkspaceShell({
             <details className="relative">
               <summary className="cursor-pointer list-none rounded-md px-3 py-2 text-sm hover:bg-paper-2" data-testid="user-menu">
                 <span className="inline-block max-w-28 truncate align-bottom sm:max-w-none">{userName}</span>
-                <span className="hidden text-ink-2 sm:inline"> · {ROLE_LABELS[role].label}</span>
+                <span className="hidden text-ink-2 sm:inline xl:hidden 2xl:inline"> · {ROLE_LABELS[role].label}</span>
               </summary>
               <div className="absolute right-0 z-20 mt-1 w-64 max-w-[calc(100vw-2rem)] rounded-md border border-line bg-paper p-3 text-sm shadow-lg">
                 <p className="font-medium">{userName}</p>
                 <p className="break-all text-ink-2">{userEmail}</p>
+                <p className="mt-1 text-xs font-medium">{organisationName}</p>
                 <p className="mt-1 text-xs text-ink-2">{ROLE_LABELS[role].label}: {ROLE_LABELS[role].meaning}</p>
                 <OrganisationSwitcher currentId={organisationId} organisations={organisations} />
                 <button type="button" className="mt-3 w-full rounded-md border border-line px-3 py-2 hover:bg-paper-2" onClick={() => signOut({ callbackUrl: "/sign-in" })}>
