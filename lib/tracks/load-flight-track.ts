@@ -17,6 +17,9 @@ import { describeAlignment, overlap, proposeOffset, type RecordingClock } from "
 import { trackPositionAt } from "./track-position-at";
 import { fromStoredPoint, type TrackPoint } from "./track-types";
 
+/** A track starting farther than this from the logged launch point is flagged (m; ours, a few GNSS errors wide). */
+export const LAUNCH_MISMATCH_M = 25;
+
 /** At most this many points are sent to the browser for the plan and the chart. */
 export const DISPLAY_POINTS = 2_000;
 
@@ -176,6 +179,12 @@ export async function loadFlightTrackView(orgId: string, flightId: string) {
     : [];
 
   const warnings = [...row.warnings];
+  if (flight.launch) {
+    // heights are measured from the track's first point (or given above the launch by the file); a track
+    // that starts elsewhere than the logged launch point measures from somewhere else than the distances do
+    const apart = inverse(flight.launch.lat, flight.launch.lon, points[0].lat, points[0].lon).distanceM;
+    if (apart > LAUNCH_MISMATCH_M) warnings.push(`The track starts ${Math.round(apart)} m from the flight's launch point: distances are measured from the launch point, heights from where the track starts`);
+  }
   const recordings = recs.map((r) => {
     const playable = renditions.find((x) => x.recordingId === r.id);
     const clock = r.startMs !== null && r.endMs !== null ? { id: r.id, startMs: r.startMs, endMs: r.endMs } : null;

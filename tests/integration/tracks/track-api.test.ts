@@ -211,6 +211,14 @@ describe("alignment, distances at the link events, and the one-click range check
     await expect(db().update(s.trackAlignments).set({ offsetMs: 0 }).where(eq(s.trackAlignments.id, latest.id))).rejects.toThrow();
   });
 
+  it("flags a track that starts away from the flight's logged launch point", async () => {
+    // 0.001 degrees of latitude is about 111 m (by hand: a meridian degree is about 111.3 km)
+    const flight = await makeFlight(orgId, { launchLatitude: LAUNCH.lat - 0.001, launchLongitude: LAUNCH.lon });
+    expect((await importAs("pilot", flight.id, body("climb.csv", new TextEncoder().encode(climbingTrack())))).status).toBe(201);
+    const v = await (await view("pilot", flight.id)).json();
+    expect(v.warnings.join("\n")).toMatch(/The track starts 111 m from the flight's launch point/);
+  });
+
   it("flags a recording that does not overlap the track", async () => {
     const flight = await makeFlight(orgId, { launchLatitude: LAUNCH.lat, launchLongitude: LAUNCH.lon });
     const rec = await insertTracedRecording(orgId, flight.id);
