@@ -1,6 +1,7 @@
 // Packages asked for but never started, because Redis lost their job (PostgreSQL is the record of
 // truth, Redis only a queue of work): queued again by the hourly retention sweep. The job id is
 // deterministic (lib/queue/jobs.ts), so a package whose job is still waiting is not queued twice.
+import "server-only";
 import { and, eq, lte } from "drizzle-orm";
 import { db } from "@/db/client";
 import { evidencePackages } from "@/db/schema";
