@@ -19,6 +19,7 @@ import type { Severity } from "@/lib/findings/severity-scale";
 import type { FrameRate } from "@/lib/timecode/frame-rate";
 import { SeverityField } from "./severity-field";
 import type { CategoryItem, FindingItem } from "./finding-types";
+import { AltitudeCautions } from "@/components/work/altitude-cautions";
 
 export type FindingDraft = {
   id?: string;
@@ -200,7 +201,20 @@ export function FindingForm({
         <div className="mt-2 grid grid-cols-2 gap-2">
           <Field label="Latitude" inputMode="decimal" value={draft.latitude} onChange={(e) => onChange({ latitude: e.target.value })} error={fe("latitude")} placeholder="54.41237" />
           <Field label="Longitude" inputMode="decimal" value={draft.longitude} onChange={(e) => onChange({ longitude: e.target.value })} error={fe("longitude")} placeholder="-2.61942" />
-          <Field label="Height above launch ground" unit="m" inputMode="decimal" className="col-span-2" value={draft.heightAglM} onChange={(e) => onChange({ heightAglM: e.target.value })} error={fe("heightAglM")} hint="Gives the slant distance from the launch point" />
+          {/* one wording for this height across Cairn (the range-check form says the same): AGL, measured at the launch point */}
+          <Field
+            label="Height above ground level (AGL)"
+            unit="m"
+            inputMode="decimal"
+            className="col-span-2"
+            value={draft.heightAglM}
+            onChange={(e) => onChange({ heightAglM: e.target.value })}
+            error={fe("heightAglM")}
+            hint="Measured from the ground at the launch point; gives the slant distance from there"
+          />
+          <div className="col-span-2">
+            <AltitudeCautions metres={Number.isFinite(Number.parseFloat(draft.heightAglM)) ? Number.parseFloat(draft.heightAglM) : null} />
+          </div>
         </div>
       </details>
 

@@ -180,7 +180,7 @@ export function RangeCheckForm({ mode, flight, units, onClose }: { mode: RangeCh
             <Field label="Bearing from launch" unit="°" inputMode="decimal" {...form.register("bearingDeg")} error={e.bearingDeg?.message} hint="Degrees clockwise from true north. Optional; places the point on the map" />
           </div>
         )}
-        <Field label="Height above ground level (AGL)" unit={units} inputMode="decimal" {...form.register("heightAgl")} error={e.heightAgl?.message} />
+        <Field label="Height above ground level (AGL)" unit={units} inputMode="decimal" {...form.register("heightAgl")} error={e.heightAgl?.message} hint="Measured from the ground at the launch point; gives the slant range from there" />
 
         <div className="grid gap-3 sm:grid-cols-2">
           <Field label="Antenna orientation" list="range-antenna-suggestions" {...form.register("antennaOrientation")} error={e.antennaOrientation?.message} />
