@@ -6,13 +6,7 @@ import { useId, useRef, useState } from "react";
 import { Button } from "@/components/ui/button";
 import { CSV_TRACK_COLUMNS } from "@/lib/tracks/csv-track-columns";
 import { MAX_TRACK_BYTES } from "@/lib/tracks/track-types";
-
-function toBase64(bytes: Uint8Array): string {
-  let s = "";
-  const CHUNK = 0x8000;
-  for (let i = 0; i < bytes.length; i += CHUNK) s += String.fromCharCode(...bytes.subarray(i, i + CHUNK));
-  return btoa(s);
-}
+import { sendTrackFile } from "./send-track-file";
 
 export function TrackImport({ flightId, onImported }: { flightId: string; onImported: () => void }) {
   const [busy, setBusy] = useState(false);
@@ -23,30 +17,12 @@ export function TrackImport({ flightId, onImported }: { flightId: string; onImpo
 
   async function send(file: File) {
     setProblems([]);
-    if (file.size > MAX_TRACK_BYTES) {
-      setProblems([`${file.name}: the file is ${(file.size / 1048576).toFixed(1)} MiB; a track may be at most ${(MAX_TRACK_BYTES / 1048576).toFixed(1)} MiB. Nothing was saved.`]);
-      return;
-    }
     setBusy(true);
-    try {
-      const bytes = new Uint8Array(await file.arrayBuffer());
-      const res = await fetch(`/api/flights/${flightId}/track?name=${encodeURIComponent(file.name)}`, {
-        method: "POST",
-        headers: { "content-type": "application/json" },
-        body: JSON.stringify({ fileName: file.name, contentBase64: toBase64(bytes) }),
-      });
-      if (res.ok) {
-        onImported();
-        return;
-      }
-      const err = (await res.json().catch(() => null))?.error;
-      setProblems(err?.fields?.file ?? [err?.message ?? `${file.name}: the import failed (HTTP ${res.status}). Nothing was saved.`]);
-    } catch {
-      setProblems([`${file.name}: the connection failed before the server answered. Nothing was saved; try again.`]);
-    } finally {
-      setBusy(false);
-      if (input.current) input.current.value = "";
-    }
+    const r = await sendTrackFile(flightId, file);
+    setBusy(false);
+    if (input.current) input.current.value = "";
+    if (r.ok) onImported();
+    else setProblems(r.problems);
   }
 
   return (

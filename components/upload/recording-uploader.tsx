@@ -17,6 +17,7 @@ import { UPLOAD_CHUNK_BYTES, UPLOAD_RETRY_DELAYS_MS, UPLOAD_ROUTE_PATH } from "@
 import type { UploadOutcome } from "@/lib/uploads/upload-outcome";
 import { formatBytes } from "@/lib/uploads/format-bytes";
 import { classifyUploadFailure } from "./upload-failure";
+import { isTrackFileName, sendTrackFile } from "@/components/tracks/send-track-file";
 import "./uppy-styles.css";
 
 type Meta = {
@@ -43,6 +44,8 @@ export type FileReport = {
   error?: string;
   /** why the server refused the file, when it did: sending it again gets the same answer */
   refused?: string;
+  /** a .gpx or .csv file dropped with the recordings, imported as the flight's track (components/tracks) */
+  track?: { sha256: string; pointCount: number };
 };
 
 const STORING_POLL_MS = 2_000;
@@ -158,7 +161,21 @@ export function RecordingUploader({ jobId, flightId, maxFileBytes, onReport }: {
         takeOff(file, failure.reason);
       } else report.current({ ...base(file), error: failure.reason });
     };
-    const onAdded = (file: UppyFile<Meta, Body> | undefined) => file && report.current({ ...base(file) });
+    const onAdded = (file: UppyFile<Meta, Body> | undefined) => {
+      if (!file) return;
+      // a track file dropped with the recordings goes to the flight's track import (components/tracks), not to tus:
+      // taken off the widget before the upload starts (autoProceed waits a tick), reported in the list below
+      if (isTrackFileName(file.name ?? "") && typeof file.meta.flightId === "string" && file.data instanceof File) {
+        const flight = file.meta.flightId;
+        const data = file.data;
+        uppy.removeFile(file.id);
+        const one = { ...base(file), relativePath: null };
+        report.current(one);
+        void sendTrackFile(flight, data).then((r) => report.current(r.ok ? { ...one, track: { sha256: r.sha256, pointCount: r.pointCount } } : { ...one, refused: r.problems.join(" ") }));
+        return;
+      }
+      report.current({ ...base(file) });
+    };
     const onRetryAll = () => uppy.getFiles().forEach((f) => f.error && report.current({ ...base(f) }));
     uppy.on("upload-success", onSuccess);
     uppy.on("upload-error", onError as never);

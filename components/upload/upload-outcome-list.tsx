@@ -10,6 +10,17 @@ import type { FileReport } from "./recording-uploader";
 function Line({ r }: { r: FileReport }) {
   const o = r.outcome;
   if (r.refused) return <Refused reason={r.refused} />;
+  if (r.track) {
+    return (
+      <p className="flex flex-wrap items-center gap-2 text-good">
+        <span>
+          <span aria-hidden className="mr-1">✓</span>
+          <span className="font-medium">Imported as the flight&apos;s track</span> ({r.track.pointCount} points), kept unaltered, SHA-256
+        </span>
+        <HashText value={r.track.sha256} />
+      </p>
+    );
+  }
   if (r.error) {
     return (
       <p className="text-bad">
@@ -65,6 +76,7 @@ function Refused({ reason }: { reason: string }) {
 
 export function stateOf(r: FileReport): string {
   if (r.refused) return "refused";
+  if (r.track) return "track";
   if (r.error) return "error";
   return r.outcome?.state ?? "uploading";
 }
@@ -75,13 +87,14 @@ export function UploadOutcomeList({ reports }: { reports: FileReport[] }) {
   const duplicates = reports.filter((r) => r.outcome?.state === "duplicate").length;
   const refused = reports.filter((r) => stateOf(r) === "refused").length;
   const stopped = reports.filter((r) => stateOf(r) === "error").length;
+  const tracks = reports.filter((r) => stateOf(r) === "track").length;
   return (
     <section aria-labelledby="outcomes-title" className="flex flex-col gap-2">
       <h2 id="outcomes-title" className="text-lg font-semibold">
         This session
       </h2>
       <p className="text-sm text-ink-2" aria-live="polite">
-        {reports.length} {reports.length === 1 ? "file" : "files"} · {stored} stored · {duplicates} already held · {refused} refused{stopped > 0 ? ` · ${stopped} stopped` : ""}
+        {reports.length} {reports.length === 1 ? "file" : "files"} · {stored} stored · {duplicates} already held · {refused} refused{stopped > 0 ? ` · ${stopped} stopped` : ""}{tracks > 0 ? ` · ${tracks} track imported` : ""}
       </p>
       <ul className="divide-y divide-line rounded-md border border-line" aria-live="polite">
         {reports.map((r) => (

@@ -1,6 +1,7 @@
 // Flight tracks in a real browser against the built app: import a CSV track on a flight's page, align it by
 // matching the player's frame to a track point, play the recording and see the aircraft move on the plan,
-// and log a link event of the signal trace as a range check with one click, nothing typed.
+// and log a link event of the signal trace as a range check with one click, nothing typed; and a track
+// dropped in the uploader together with a recording.
 // The recording is real: a frame-counter stream damaged in Node (a scrambled picture, a run of lost ones),
 // processed by the worker's own handler (tests/support/media/make-processed-recording.ts).
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
@@ -110,5 +111,23 @@ describe("a flight track in the browser", () => {
     // the cautions stand beside the figures, never a modal
     expect(await page.getByText("Range figures describe the radio link, not permission to fly that far.").count()).toBeGreaterThanOrEqual(1);
     expect(await page.getByRole("dialog").count()).toBe(0);
+  }, 120_000);
+
+  it("imports a track dropped with the recordings in the uploader, and uploads the recording beside it", async () => {
+    const flight = await makeFlight(orgId, { launchLatitude: LAUNCH.lat, launchLongitude: LAUNCH.lon });
+    await page.goto(`/upload?jobId=${flight.jobId}&flightId=${flight.id}`);
+    await page.getByRole("heading", { name: "2. Add the files" }).waitFor();
+    const clean = await makeCounterH264({ seconds: 1, fps: FPS });
+    await page.locator(".uppy-Dashboard input.uppy-Dashboard-input:not([webkitdirectory])").first().setInputFiles([
+      { name: "flight-log.csv", mimeType: "text/csv", buffer: Buffer.from(trackCsv()) },
+      { name: "VID_0100.h264", mimeType: "video/h264", buffer: await import("node:fs/promises").then((fs) => fs.readFile(clean)) },
+    ]);
+    await expect.poll(() => page.locator('[data-upload-file="flight-log.csv"]').getAttribute("data-upload-state"), { timeout: 30_000 }).toBe("track");
+    await expect.poll(() => page.locator('[data-upload-file="VID_0100.h264"]').getAttribute("data-upload-state"), { timeout: 60_000 }).toBe("stored");
+    expect(await page.locator('[data-upload-file="flight-log.csv"]').textContent()).toMatch(/Imported as the flight's track \(401 points\)/);
+    const [track] = await db().select({ name: s.flightTracks.originalName, n: s.flightTracks.pointCount }).from(s.flightTracks).where(eq(s.flightTracks.flightId, flight.id));
+    expect(track).toEqual({ name: "flight-log.csv", n: 401 });
+    // the track file never went to the recordings' upload path
+    expect(await db().$count(s.recordings, and(eq(s.recordings.flightId, flight.id), eq(s.recordings.originalName, "flight-log.csv")))).toBe(0);
   }, 120_000);
 });
