@@ -26,7 +26,9 @@ const isoMinute = (s: string) => new Date(s).toISOString().replace("T", " ").sli
 export function JobEvidencePackages({ jobId, role }: { jobId: string; role: Role }) {
   const qc = useQueryClient();
   const purposeId = useId();
+  const whatId = useId();
   const [purpose, setPurpose] = useState("");
+  const [what, setWhat] = useState("job");
   const canBuild = can(role, "packages.build");
   const list = useQuery({
     queryKey: ["evidence-packages", jobId],
@@ -34,8 +36,13 @@ export function JobEvidencePackages({ jobId, role }: { jobId: string; role: Role
     refetchInterval: (q) => (q.state.data?.items.some(running) ? 1000 : false),
     enabled: can(role, "packages.download"),
   });
+  const flights = useQuery({
+    queryKey: ["flights", jobId, "for-packages"],
+    queryFn: () => fetchJson<{ items: { id: string; flownOn: string; aircraft: string | null }[] }>(`/api/flights?jobId=${jobId}`),
+    enabled: canBuild,
+  });
   const build = useMutation({
-    mutationFn: () => fetchJson<PackageView>("/api/evidence-packages", { method: "POST", json: { jobId, purpose: purpose.trim() || null } }),
+    mutationFn: () => fetchJson<PackageView>("/api/evidence-packages", { method: "POST", json: { jobId, flightId: what === "job" ? null : what, purpose: purpose.trim() || null } }),
     onSuccess: () => {
       setPurpose("");
       void qc.invalidateQueries({ queryKey: ["evidence-packages", jobId] });
@@ -60,6 +67,20 @@ export function JobEvidencePackages({ jobId, role }: { jobId: string; role: Role
             build.mutate();
           }}
         >
+          {(flights.data?.items.length ?? 0) > 1 && (
+            <label htmlFor={whatId} className="flex flex-col gap-1 text-sm">
+              <span>What to package</span>
+              <select id={whatId} value={what} onChange={(e) => setWhat(e.target.value)} className="rounded-md border border-line bg-paper px-2 py-2">
+                <option value="job">The whole job</option>
+                {flights.data!.items.map((f) => (
+                  <option key={f.id} value={f.id}>
+                    Flight of {f.flownOn}
+                    {f.aircraft ? ` (${f.aircraft})` : ""}
+                  </option>
+                ))}
+              </select>
+            </label>
+          )}
           <label htmlFor={purposeId} className="flex min-w-60 flex-1 flex-col gap-1 text-sm">
             <span>For whom or why (optional)</span>
             <input id={purposeId} value={purpose} maxLength={300} onChange={(e) => setPurpose(e.target.value)} className="rounded-md border border-line bg-paper px-3 py-2" placeholder="For example: the loss adjuster, claim reference" />
@@ -111,9 +132,53 @@ export function JobEvidencePackages({ jobId, role }: { jobId: string; role: Role
               </p>
             )}
             {(p.state === "ready" || running(p)) && <p className="mt-1 text-ink-2">Kept until {p.expiresAt.slice(0, 10)} (UTC), then removed; every build and download is in the custody log.</p>}
+            {p.state === "ready" && can(role, "shares.manage") && <OfferThroughLink jobId={jobId} packageId={p.id} />}
           </li>
         ))}
       </ol>
     </section>
+  );
+}
+
+type LinkOption = { id: string; label: string; status: "active" | "expired" | "revoked" };
+
+/** An owner lets a share link of the job carry this package: its holder can then download it. */
+function OfferThroughLink({ jobId, packageId }: { jobId: string; packageId: string }) {
+  const selectId = useId();
+  const [chosen, setChosen] = useState("");
+  const links = useQuery({ queryKey: ["share-links", jobId, "for-packages"], queryFn: () => fetchJson<{ items: LinkOption[] }>(`/api/share-links?jobId=${jobId}`) });
+  const active = links.data?.items.filter((l) => l.status === "active") ?? [];
+  const offer = useMutation({ mutationFn: (shareLinkId: string) => fetchJson(`/api/evidence-packages/${packageId}/share`, { method: "PUT", json: { shareLinkId } }) });
+  if (links.isPending) return null;
+  if (active.length === 0) return <p className="mt-1 text-ink-2">To hand it over without an account, create a share link for this job; it can then carry this package.</p>;
+  const linkId = chosen || active[0].id;
+  return (
+    <form
+      className="mt-2 flex flex-wrap items-end gap-2"
+      onSubmit={(e) => {
+        e.preventDefault();
+        offer.mutate(linkId);
+      }}
+    >
+      <label htmlFor={selectId} className="flex flex-col gap-1">
+        <span>Offer through a share link</span>
+        <select id={selectId} value={linkId} onChange={(e) => setChosen(e.target.value)} className="rounded-md border border-line bg-paper px-2 py-2">
+          {active.map((l) => (
+            <option key={l.id} value={l.id}>
+              {l.label}
+            </option>
+          ))}
+        </select>
+      </label>
+      <Button type="submit" variant="secondary" busy={offer.isPending}>
+        Offer package
+      </Button>
+      {offer.isSuccess && (
+        <span role="status" className="text-good">
+          <span aria-hidden>✓ </span>The link&apos;s page now offers this package.
+        </span>
+      )}
+      <FormError error={offer.error} />
+    </form>
   );
 }

@@ -13,9 +13,11 @@ import type { Browser, BrowserContext, Page } from "playwright-core";
 import { closeDb, db } from "@/db/client";
 import * as s from "@/db/schema";
 import { storePath } from "@/lib/storage/local-store";
+import { generateShareToken, hashShareToken } from "@/lib/sharing/share-token";
 import { BASE, launch, newContext, signInWithPassword } from "@/tests/support/browser";
 import { demoOrganisationId } from "@/tests/support/session";
-import { makeSharedJob } from "@/tests/integration/sharing/share-fixtures";
+import { makeSharedJob, makeStoredRecording } from "@/tests/integration/sharing/share-fixtures";
+import { makeFlight } from "@/tests/support/factories";
 
 let browser: Browser;
 let ctx: BrowserContext;
@@ -61,6 +63,41 @@ describe("a job's evidence packages", () => {
     const bytes = await readFile(file!);
     expect(createHash("sha256").update(bytes).digest("hex")).toBe(row.sha256);
     expect(download.suggestedFilename()).toMatch(/^cairn-evidence-.+\.zip$/);
+  });
+
+  it("an owner offers it through a share link, whose page then offers the download", async () => {
+    const token = generateShareToken();
+    await db()
+      .insert(s.shareLinks)
+      .values({ organisationId: orgId, jobId: job.jobId, scope: "job", tokenHash: hashShareToken(token), label: "Loss adjuster link", expiresAt: new Date(Date.now() + 86_400_000) });
+    await page.goto(`/jobs/${job.jobId}`);
+    const item = page.getByTestId("evidence-package").first();
+    await item.getByLabel("Offer through a share link").selectOption({ label: "Loss adjuster link" });
+    await item.getByRole("button", { name: "Offer package" }).click();
+    await item.getByText("The link's page now offers this package.").waitFor();
+    const visitor = await newContext(browser);
+    const v = await visitor.newPage();
+    await v.goto(`/s/${token}`);
+    const offer = v.getByTestId("share-evidence-package");
+    await offer.waitFor();
+    const [row] = await db().select().from(s.evidencePackages).where(eq(s.evidencePackages.jobId, job.jobId));
+    const [download] = await Promise.all([v.waitForEvent("download"), offer.getByRole("link", { name: "Download the evidence package (ZIP)" }).click()]);
+    expect(createHash("sha256").update(await readFile((await download.path())!)).digest("hex")).toBe(row.sha256);
+    await visitor.close();
+  });
+
+  it("of one flight, when the job has several", async () => {
+    const second = await makeFlight(orgId, { jobId: job.jobId, flownOn: "2026-03-15" });
+    await makeStoredRecording(orgId, job.jobId, second.id, { name: "second-sortie.264" });
+    await page.goto(`/jobs/${job.jobId}`);
+    const section = page.getByTestId("job-evidence-packages");
+    await section.getByLabel("What to package").selectOption({ label: "Flight of 2026-03-15 (Test airframe)" });
+    await section.getByRole("button", { name: "Build package" }).click();
+    const item = section.getByTestId("evidence-package").first();
+    await expect.poll(() => item.textContent(), { timeout: 60_000 }).toContain("one flight");
+    await expect.poll(() => item.getAttribute("data-state"), { timeout: 60_000 }).toBe("ready");
+    const rows = await db().select({ flightId: s.evidencePackages.flightId, payloadFiles: s.evidencePackages.payloadFiles }).from(s.evidencePackages).where(eq(s.evidencePackages.flightId, second.id));
+    expect(rows).toHaveLength(1);
   });
 
   it("a pilot sees the package but no build button", async () => {
