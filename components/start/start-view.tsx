@@ -42,7 +42,7 @@ const GROUP_TEXT: Record<AttentionKind, { title: string; none: string; mark: str
   shares_expiring: {
     title: "Share links expiring within 7 days",
     none: "No share link expires this week.",
-    mark: "⌛",
+    mark: "◷",
     tone: "warn",
     more: { href: "/custody", label: "Custody log" },
   },

@@ -229,7 +229,7 @@ describe("foundation in the browser", () => {
       // the workspace now belongs to the second organisation, where this person is a reviewer
       await expect.poll(() => orgName.textContent(), { timeout: 15_000 }).toBe(second.name);
       expect(await page.getByTestId("user-menu").textContent()).toContain("Reviewer");
-      expect(await page.getByRole("link", { name: "Upload" }).count()).toBe(0);
+      expect(await page.getByRole("link", { name: "Upload", exact: true }).count()).toBe(0);
       // and back
       await page.getByTestId("user-menu").click();
       await page.getByTestId("organisation-switcher").getByRole("button", { name: `Switch to ${home.name}` }).click();

@@ -1,4 +1,4 @@
-// /custody: the organisation's whole custody log, with the verify action and exports.
+// /custody: the organisation's whole custody log, newest first, paged and filtered, with the verify action and exports.
 import { pageMember } from "@/lib/auth/page-member";
 import { PageHeader } from "@/components/ui/page-header";
 import { CustodyLogPanel } from "@/components/custody/custody-log-panel";
@@ -11,7 +11,7 @@ export default async function CustodyPage() {
     <>
       <PageHeader
         title="Custody log"
-        intro="Every handling of evidence in your organisation, in order: uploads, processing, views, downloads, shares, holds and deletions. Each event is sealed with a SHA-256 hash that includes the one before it, so a changed or missing event shows up when the chain is verified."
+        intro="Every handling of evidence in your organisation, newest first: uploads, processing, views, downloads, shares, holds and deletions. Filter by recording, kind of event, person or date. Each event is sealed with a SHA-256 hash that includes the one before it, so a changed or missing event shows up when the chain is verified."
       />
       <CustodyLogPanel />
     </>
