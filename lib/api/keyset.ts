@@ -8,6 +8,9 @@
 import { and, isNull, or, sql, type AnyColumn, type SQL } from "drizzle-orm";
 import { z } from "zod";
 import { ApiError } from "./errors";
+import { MAX_CURSOR_CHARS, MAX_PAGE_SIZE, cursorParam, cursorText, keysetParams, type KeysetParams } from "@/lib/validation/page-params";
+
+export { MAX_CURSOR_CHARS, MAX_PAGE_SIZE, cursorParam, keysetParams, type KeysetParams };
 
 /** The SQL types a key's value can be cast back to. `enum` names its PostgreSQL enum type and values. */
 export type KeyType =
@@ -28,14 +31,6 @@ export type KeyPart = {
   /** a NOT NULL key lets the whole ordering use one row comparison, which a btree index serves */
   notNull?: boolean;
 };
-
-/** Largest page any list serves; a list's own default may be smaller. */
-export const MAX_PAGE_SIZE = 200;
-export const MAX_CURSOR_CHARS = 4000;
-
-const cursorText = z.string().max(MAX_CURSOR_CHARS, "The cursor is too long").regex(/^[A-Za-z0-9_-]+$/, "The cursor is not valid");
-/** `cursor` query parameter: shape only; its values are checked against the list's keys by decodeCursor. */
-export const cursorParam = cursorText.optional();
 
 const cursorBody = z.object({ o: z.string().max(200), v: z.array(z.string().max(1000).nullable()).min(1).max(12) });
 
@@ -187,6 +182,4 @@ export function afterCursor(cursor: string | undefined, ordering: string, keys: 
 }
 
 /** `cursor` and `pageSize` for a list that has no search or sort of its own (a recording's views, a job's share links). */
-export const keysetParams = (defaultPageSize: number) =>
-  z.object({ cursor: cursorParam, pageSize: z.coerce.number().int().min(1).max(MAX_PAGE_SIZE).default(defaultPageSize) });
-export type KeysetParams = { cursor?: string; pageSize: number };
+

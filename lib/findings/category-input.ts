@@ -15,3 +15,6 @@ export const categoryPatch = categoryInput.partial().extend({ archived: z.boolea
 
 export type CategoryInput = z.infer<typeof categoryInput>;
 export type CategoryPatch = z.infer<typeof categoryPatch>;
+
+/** GET /api/finding-categories: filter by asset kind; archived=1 lists the archived ones */
+export const categoriesQuery = z.object({ assetKind: z.enum(ASSET_KINDS).optional(), archived: z.enum(["0", "1"]).default("0") });

@@ -4,7 +4,8 @@
 // resolveFindingSpan.
 import { z } from "zod";
 import { SEVERITIES } from "./severity-scale";
-import { textRule } from "@/lib/validation/common";
+import { plainText, textRule } from "@/lib/validation/common";
+import { keysetParams } from "@/lib/validation/page-params";
 
 export const NOTE_MAX = 4000;
 
@@ -75,3 +76,9 @@ export const updateFindingInput = z
 
 export type CreateFindingInput = z.infer<typeof createFindingInput>;
 export type UpdateFindingInput = z.infer<typeof updateFindingInput>;
+
+/** GET /api/findings: a recording's or a job's live findings; a page holds up to 200, callers that need them all follow `nextCursor` */
+export const findingsQuery = keysetParams(200).extend({ recordingId: z.string().uuid().optional(), jobId: z.string().uuid().optional() });
+
+/** DELETE /api/findings/:id: the reason is kept with the deletion */
+export const deleteFindingInput = z.object({ reason: plainText(500, true).optional() }).strict();

@@ -2,23 +2,12 @@
 // existing tag regardless of letter case), removing one only unlinks it from the recording.
 import "server-only";
 import { and, asc, eq, isNull, sql } from "drizzle-orm";
-import { z } from "zod";
 import { db } from "@/db/client";
 import { recordingTags, recordings, tags } from "@/db/schema";
 import { notFound } from "@/lib/api/errors";
-import { textRule } from "@/lib/validation/common";
+import { tagInput, tagName } from "./recording-input";
 
-export const tagName = z
-  .string()
-  .transform((s) => s.normalize("NFC").replace(/\s+/g, " ").trim())
-  .pipe(
-    z
-      .string()
-      .min(1, "Required")
-      .max(40, "At most 40 characters")
-      .superRefine(textRule()),
-  );
-export const tagInput = z.object({ name: tagName }).strict();
+export { tagName, tagInput };
 
 async function assertRecording(organisationId: string, recordingId: string) {
   const [r] = await db()

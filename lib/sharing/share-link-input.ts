@@ -4,6 +4,7 @@
 // as none, and recipients typed as one line are split at commas, semicolons and spaces.
 import { z } from "zod";
 import { safeText, textRule } from "@/lib/validation/common";
+import { keysetParams } from "@/lib/validation/page-params";
 
 export const SHARE_SCOPES = ["recording", "findings", "report", "job"] as const;
 export type ShareScope = (typeof SHARE_SCOPES)[number];
@@ -52,3 +53,10 @@ export const shareLinkInput = z
   });
 
 export type ShareLinkInput = z.infer<typeof shareLinkInput>;
+
+/** GET /api/share-links/options?jobId= (a missing or malformed id answers 404, like an unknown job) */
+export const shareOptionsQuery = z.object({ jobId: z.string().optional() });
+/** GET /api/share-links?jobId=, paged */
+export const shareLinksQuery = keysetParams(100).extend({ jobId: z.string().optional() });
+/** a job id from a query string, or null when it cannot be one */
+export const jobIdOrNull = (v: string | undefined): string | null => (v && uuid.safeParse(v).success ? v : null);

@@ -216,3 +216,6 @@ export const flightFilter = z.object({
     .optional()
     .transform((v) => (v ? v : undefined)),
 });
+
+/** GET /api/range-checks/trace-events?flightId= */
+export const traceEventsQuery = z.object({ flightId: z.string().uuid("Choose a flight from the list") });

@@ -89,6 +89,7 @@ const siteFields = {
 export const siteInput = z
   .object({ ...siteFields, timeZone: timeZone.default("UTC"), assetKind: siteFields.assetKind.default("other") })
   .superRefine(pairRule(["latitude", "longitude"]));
+export const clientPatch = clientInput.partial().extend({ archived }).strict();
 export const sitePatch = z.object(siteFields).partial().extend({ archived }).strict();
 
 const jobFields = {

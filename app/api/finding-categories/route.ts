@@ -1,14 +1,10 @@
 // GET /api/finding-categories[?assetKind=&archived=1]: the organisation's categories; POST: add one
-import { z } from "zod";
 import { withOrg, readJson, parseQuery, created, ok } from "@/lib/api/with-org";
-import { ASSET_KINDS } from "@/lib/validation/work";
-import { categoryInput } from "@/lib/findings/category-input";
+import { categoriesQuery, categoryInput } from "@/lib/findings/category-input";
 import { createCategory, listCategories } from "@/lib/findings/finding-categories";
 
-const query = z.object({ assetKind: z.enum(ASSET_KINDS).optional(), archived: z.enum(["0", "1"]).default("0") });
-
 export const GET = withOrg({ permission: "findings.read" }, async ({ req, member }) => {
-  const q = parseQuery(req, query);
+  const q = parseQuery(req, categoriesQuery);
   return ok(await listCategories(member.organisationId, { assetKind: q.assetKind, archived: q.archived === "1" }));
 });
 

@@ -1,21 +1,17 @@
 // GET /api/findings?recordingId=|jobId=[&cursor=&pageSize=]: live findings of a recording or a job, paged; POST /api/findings: mark one
 import { jobScopeCondition } from "@/lib/auth/client-scope";
-import { z } from "zod";
 import { and, eq } from "drizzle-orm";
 import { withOrg, readJson, parseQuery, created, ok } from "@/lib/api/with-org";
 import { ApiError } from "@/lib/api/errors";
 import { findings } from "@/db/schema";
 import { requestFacts } from "@/lib/custody/record-custody-event";
-import { createFindingInput } from "@/lib/findings/finding-input";
+import { createFindingInput, findingsQuery } from "@/lib/findings/finding-input";
 import { createFinding } from "@/lib/findings/create-finding";
 import { listFindingViews } from "@/lib/findings/finding-view";
-import { keysetParams } from "@/lib/api/keyset";
 
-// a page holds up to 200 findings; callers that need them all follow `nextCursor`
-const query = keysetParams(200).extend({ recordingId: z.string().uuid().optional(), jobId: z.string().uuid().optional() });
 
 export const GET = withOrg({ permission: "findings.read" }, async ({ req, member }) => {
-  const q = parseQuery(req, query);
+  const q = parseQuery(req, findingsQuery);
   if (!q.recordingId && !q.jobId) throw new ApiError("bad_request", "Ask for the findings of a recording (recordingId) or a job (jobId)");
   const where = q.recordingId ? eq(findings.recordingId, q.recordingId) : eq(findings.jobId, q.jobId!);
   return ok(await listFindingViews(member.organisationId, and(where, jobScopeCondition(member, findings.jobId))!, { cursor: q.cursor, pageSize: q.pageSize }));

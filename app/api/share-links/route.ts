@@ -1,19 +1,16 @@
 // GET /api/share-links?jobId=[&cursor=&pageSize=]: a job's share links with opens and downloads; POST: create one
 // (the response carries the link's address once: Cairn keeps only its hash)
-import { z } from "zod";
 import { withOrg, readJson, parseQuery, created, ok } from "@/lib/api/with-org";
 import { requestFacts } from "@/lib/custody/record-custody-event";
-import { shareLinkInput } from "@/lib/sharing/share-link-input";
+import { jobIdOrNull, shareLinkInput, shareLinksQuery } from "@/lib/sharing/share-link-input";
 import { createShareLink } from "@/lib/sharing/create-share-link";
 import { listJobShareLinks } from "@/lib/sharing/list-share-links";
 import { ApiError } from "@/lib/api/errors";
-import { keysetParams } from "@/lib/api/keyset";
-
-const query = keysetParams(100).extend({ jobId: z.string().optional() });
 
 export const GET = withOrg({ permission: "shares.manage" }, async ({ req, member }) => {
-  const { jobId, ...page } = parseQuery(req, query);
-  if (!jobId || !z.string().uuid().safeParse(jobId).success) throw new ApiError("not_found", "Job not found");
+  const { jobId: asked, ...page } = parseQuery(req, shareLinksQuery);
+  const jobId = jobIdOrNull(asked);
+  if (!jobId) throw new ApiError("not_found", "Job not found");
   return ok(await listJobShareLinks(member.organisationId, jobId, page));
 });
 

@@ -1,12 +1,10 @@
 // GET/PATCH/DELETE /api/clients/:id: read, edit, archive one client (DELETE archives; nothing is erased)
 import { requireInScope } from "@/lib/auth/client-scope";
 import { withOrg, readJson, idParam, ok } from "@/lib/api/with-org";
-import { clientInput } from "@/lib/validation/work";
+import { clientPatch } from "@/lib/validation/work";
 import { getClientOrThrow, updateClient } from "@/lib/filing/clients";
-import { z } from "zod";
 
 type P = { id: string };
-const patch = clientInput.partial().extend({ archived: z.boolean().optional() }).strict();
 
 export const GET = withOrg<P>({ permission: "workspace.read" }, async ({ params, member }) => {
   const id = idParam(params.id, "Client not found");
@@ -17,7 +15,7 @@ export const GET = withOrg<P>({ permission: "workspace.read" }, async ({ params,
 
 export const PATCH = withOrg<P>({ permission: "clients.write" }, async ({ req, params, member }) => {
   const id = idParam(params.id, "Client not found");
-  return ok(await updateClient(member.organisationId, id, await readJson(req, patch)));
+  return ok(await updateClient(member.organisationId, id, await readJson(req, clientPatch)));
 });
 
 export const DELETE = withOrg<P>({ permission: "clients.write" }, async ({ params, member }) =>

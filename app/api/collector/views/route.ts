@@ -1,13 +1,10 @@
 // GET /api/collector/views?recordingId=[&cursor=&pageSize=]: who watched a recording, when, and how playback went
-import { z } from "zod";
-import { keysetParams } from "@/lib/api/keyset";
+import { playbackViewsQuery } from "@/lib/playback-analytics/playback-input";
 import { withOrg, parseQuery, ok } from "@/lib/api/with-org";
 import { listPlaybackViews } from "@/lib/playback-analytics/list-playback-views";
 
-const query = keysetParams(200).extend({ recordingId: z.string().uuid() });
-
 // who watched is the crew's business: a client account is refused (views.read)
 export const GET = withOrg({ permission: "views.read" }, async ({ req, member }) => {
-  const { recordingId, ...page } = parseQuery(req, query);
+  const { recordingId, ...page } = parseQuery(req, playbackViewsQuery);
   return ok(await listPlaybackViews(member.organisationId, recordingId, page));
 });

@@ -1,19 +1,13 @@
 // GET /api/custody/export?format=csv|json[&recordingId=|&jobId=]: download a custody trail (or the
 // organisation's whole log), streamed page by page
-import { z } from "zod";
+import { custodyExportQuery } from "@/lib/custody/custody-input";
 import { withOrg, parseQuery } from "@/lib/api/with-org";
 import { buildContentDisposition } from "@/lib/http/build-content-disposition";
 import { custodyTrail, trailCondition } from "@/lib/custody/list-custody-events";
 import { custodyCsvHeader, custodyCsvRow, custodyJsonEvent, HASH_RULE } from "@/lib/custody/export-custody-log";
 
-const query = z.object({
-  format: z.enum(["csv", "json"]).default("csv"),
-  recordingId: z.string().uuid().optional(),
-  jobId: z.string().uuid().optional(),
-});
-
 export const GET = withOrg({ permission: "custody.read" }, async ({ req, member }) => {
-  const q = parseQuery(req, query);
+  const q = parseQuery(req, custodyExportQuery);
   const filter = { recordingId: q.recordingId, jobId: q.jobId };
   await trailCondition(member.organisationId, filter); // 404 before the stream starts
   const scope = q.recordingId ? `recording-${q.recordingId}` : q.jobId ? `job-${q.jobId}` : "organisation";

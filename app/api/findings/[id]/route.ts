@@ -1,17 +1,14 @@
 // GET/PATCH/DELETE /api/findings/:id: read, edit (kept as a new version) or delete (recorded, not erased) a finding
 import { requireInScope } from "@/lib/auth/client-scope";
-import { z } from "zod";
-import { plainText } from "@/lib/validation/common";
 import { withOrg, readJson, idParam, ok } from "@/lib/api/with-org";
 import { notFound } from "@/lib/api/errors";
 import { requestFacts } from "@/lib/custody/record-custody-event";
-import { updateFindingInput } from "@/lib/findings/finding-input";
+import { deleteFindingInput, updateFindingInput } from "@/lib/findings/finding-input";
 import { updateFinding } from "@/lib/findings/update-finding";
 import { deleteFinding } from "@/lib/findings/delete-finding";
 import { loadFindingView } from "@/lib/findings/finding-view";
 
 type P = { id: string };
-const deleteInput = z.object({ reason: plainText(500, true).optional() }).strict();
 
 export const GET = withOrg<P>({ permission: "findings.read" }, async ({ params, member }) => {
   const id = idParam(params.id, "Finding not found");
@@ -30,6 +27,6 @@ export const PATCH = withOrg<P>({ permission: "findings.write" }, async ({ req, 
 export const DELETE = withOrg<P>({ permission: "findings.write" }, async ({ req, params, member }) => {
   const id = idParam(params.id, "Finding not found");
   // a reason is optional; a DELETE without a body is the common case
-  const { reason } = (await req.clone().text()).trim() ? await readJson(req, deleteInput) : { reason: undefined };
+  const { reason } = (await req.clone().text()).trim() ? await readJson(req, deleteFindingInput) : { reason: undefined };
   return ok(await deleteFinding(member.organisationId, id, { userId: member.userId, role: member.role, ...requestFacts(req) }, reason || null));
 });

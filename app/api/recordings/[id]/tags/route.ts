@@ -1,8 +1,8 @@
 // GET/POST/DELETE /api/recordings/:id/tags: a recording's tags; POST { name } adds one, DELETE ?name= removes one
 import { requireInScope } from "@/lib/auth/client-scope";
-import { z } from "zod";
 import { withOrg, idParam, parseQuery, readJson, ok } from "@/lib/api/with-org";
-import { addRecordingTag, recordingTagNames, removeRecordingTag, tagInput, tagName } from "@/lib/recordings/tag-recording";
+import { addRecordingTag, recordingTagNames, removeRecordingTag } from "@/lib/recordings/tag-recording";
+import { tagInput, tagRemovalQuery } from "@/lib/recordings/recording-input";
 
 type P = { id: string };
 const id = (params: P) => idParam(params.id, "Recording not found");
@@ -19,6 +19,6 @@ export const POST = withOrg<P>({ permission: "recordings.tag" }, async ({ req, p
 });
 
 export const DELETE = withOrg<P>({ permission: "recordings.tag" }, async ({ req, params, member }) => {
-  const { name } = parseQuery(req, z.object({ name: tagName }));
+  const { name } = parseQuery(req, tagRemovalQuery);
   return ok({ tags: await removeRecordingTag(member.organisationId, id(params), name) });
 });

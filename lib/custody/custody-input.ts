@@ -1,0 +1,9 @@
+// The inputs of the custody routes.
+import { z } from "zod";
+
+/** GET /api/custody/export?format=&recordingId=|jobId= */
+export const custodyExportQuery = z.object({
+  format: z.enum(["csv", "json"]).default("csv"),
+  recordingId: z.string().uuid().optional(),
+  jobId: z.string().uuid().optional(),
+});
