@@ -7,3 +7,6 @@ export const custodyExportQuery = z.object({
   recordingId: z.string().uuid().optional(),
   jobId: z.string().uuid().optional(),
 });
+
+/** GET /api/custody/filters?jobId=: the people and recordings to filter a log by */
+export const custodyFiltersQuery = z.object({ jobId: z.string().uuid("Not a valid id").optional() });

@@ -20,3 +20,6 @@ export const packageRequestInput = z
 export type PackageRequestInput = z.infer<typeof packageRequestInput>;
 
 export const packageShareInput = z.object({ shareLinkId: z.string().uuid("Unknown share link").nullable() }).strict();
+
+/** GET /api/evidence-packages?jobId= */
+export const packagesQuery = z.object({ jobId: z.string().uuid("Ask for the packages of a job (jobId)") });

@@ -4,6 +4,7 @@
 import { z } from "zod";
 import { GeoInputError, fromMetres, parseAngle, toMetres, type Axis } from "@/lib/geo";
 import { LINK_EVENTS, type LinkEvent } from "@/lib/range-checks/link-events";
+import { CHART_DIMENSIONS } from "@/lib/range-checks/aggregate-range-chart";
 import type { PositionInput } from "@/lib/range-checks/compute-range-check";
 import { optionalText, optionalUuid, textRule, uuid } from "./common";
 
@@ -219,3 +220,5 @@ export const flightFilter = z.object({
 
 /** GET /api/range-checks/trace-events?flightId= */
 export const traceEventsQuery = z.object({ flightId: z.string().uuid("Choose a flight from the list") });
+/** GET /api/range-checks/chart?flightId=&by= */
+export const rangeChartQuery = flightFilter.extend({ by: z.enum(CHART_DIMENSIONS, { message: "Compare by camera orientation, antenna orientation, aircraft or site" }).default("cameraOrientation") });

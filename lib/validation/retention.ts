@@ -19,3 +19,8 @@ export const retentionInput = z.discriminatedUnion("target", [
 export type RetentionInput = z.infer<typeof retentionInput>;
 
 export const disposalInput = z.object({ confirmTitle: plainText(300).min(1, "Type the job's title to confirm") }).strict();
+
+/** GET /api/retention?horizonDays=: what falls due within that many days */
+export const disposalsQuery = z.object({ horizonDays: z.coerce.number().int().min(0).max(3650).default(90) });
+/** POST /api/retention/jobs/:id/final-package: no fields */
+export const finalPackageInput = z.object({}).strict();

@@ -1,16 +1,14 @@
 // GET /api/evidence-packages?jobId=: a job's evidence packages, newest first; POST {jobId, flightId?,
 // recordingIds?, purpose?}: ask for a new one (built in the background; refused first when it cannot be)
-import { z } from "zod";
 import { withOrg, readJson, parseQuery, created, ok } from "@/lib/api/with-org";
-import { packageRequestInput } from "@/lib/validation/evidence-packages";
+import { packageRequestInput, packagesQuery } from "@/lib/validation/evidence-packages";
 import { requestEvidencePackage } from "@/lib/evidence-packages/request-evidence-package";
 import { getPackageView, listJobPackages } from "@/lib/evidence-packages/list-evidence-packages";
 import { getJobOrThrow } from "@/lib/filing/jobs";
 
-const query = z.object({ jobId: z.string().uuid("Ask for the packages of a job (jobId)") });
 
 export const GET = withOrg({ permission: "packages.download" }, async ({ req, member }) => {
-  const { jobId } = parseQuery(req, query);
+  const { jobId } = parseQuery(req, packagesQuery);
   await getJobOrThrow(member.organisationId, jobId);
   const items = await listJobPackages(member.organisationId, jobId);
   return ok({ items, total: items.length });
