@@ -8,6 +8,7 @@ import { clients } from "@/db/schema";
 import { demoActors, demoOrganisationId, req, route, type Actor, type DemoActorKey } from "@/tests/support/session";
 import { makeClient } from "@/tests/support/factories";
 import { closeRedis } from "@/lib/queue/redis";
+import { roleMatrix } from "@/tests/support/role-matrix";
 
 let actors: Record<DemoActorKey, Actor>;
 let orgId: string;
@@ -24,20 +25,10 @@ afterAll(async () => {
 });
 
 describe("authorization matrix", () => {
-  const cases: [DemoActorKey, number, number][] = [
-    // actor, GET list, POST create
-    ["owner", 200, 201],
-    ["pilot", 200, 403],
-    ["reviewer", 200, 403],
-    ["client", 200, 403],
-    ["other", 200, 201],
-    ["anonymous", 401, 401],
-  ];
-  it.each(cases)("%s: list %i, create %i", async (who, listStatus, createStatus) => {
-    expect((await list.GET(await req(actors[who], "GET", "/api/clients"))).status).toBe(listStatus);
-    const res = await list.POST(await req(actors[who], "POST", "/api/clients", { name: `Made by ${who}` }));
-    expect(res.status).toBe(createStatus);
-  });
+  roleMatrix(["list", "create"], { owner: [200, 201], pilot: [200, 403], reviewer: [200, 403], client: [200, 403], other: [200, 201], anonymous: [401, 401] }, async (who) => ({
+    list: (await list.GET(await req(actors[who], "GET", "/api/clients"))).status,
+    create: (await list.POST(await req(actors[who], "POST", "/api/clients", { name: `Made by ${who}` }))).status,
+  }));
 
   it("a client of another organisation answers 404 to read, edit and archive", async () => {
     const owner = actors.owner;

@@ -10,6 +10,7 @@ import { flights } from "@/db/schema";
 import { demoActors, demoOrganisationId, req, route, type Actor, type DemoActorKey } from "@/tests/support/session";
 import { makeFlight, makeJob, makeSite } from "@/tests/support/factories";
 import { closeRedis } from "@/lib/queue/redis";
+import { crudRoleMatrix } from "@/tests/support/role-matrix";
 import { feetToMetres } from "@/lib/geo/units";
 import { isoDayFromNow } from "@/lib/validation/work";
 
@@ -37,29 +38,28 @@ const countFlights = () => db().$count(flights);
 const flight = (over: Record<string, unknown> = {}) => ({ jobId, flownOn: "2026-03-14", ...over });
 
 describe("authorization matrix", () => {
-  // actor, GET list, POST create, GET one, PATCH one, DELETE one (archive)
-  const cases: [DemoActorKey, number, number, number, number, number][] = [
-    ["owner", 200, 201, 200, 200, 200],
-    ["pilot", 200, 201, 200, 200, 200],
-    ["reviewer", 200, 403, 200, 403, 403],
-    ["client", 200, 403, 200, 403, 403],
-    ["other", 200, 422, 404, 404, 404],
-    ["anonymous", 401, 401, 401, 401, 401],
-  ];
-  it.each(cases)("%s: list %i, create %i, read %i, edit %i, archive %i", async (who, l, c, g, p, d) => {
-    const a = actors[who];
-    const f = await makeFlight(orgId, { jobId, aircraft: `Matrix airframe ${who}` });
-    const at = route({ id: f.id });
-    expect((await list.GET(await req(a, "GET", "/api/flights"))).status).toBe(l);
-    expect((await list.POST(await req(a, "POST", "/api/flights", flight({ aircraft: `Made by ${who}` })))).status).toBe(c);
-    expect((await one.GET(await req(a, "GET", `/api/flights/${f.id}`), at)).status).toBe(g);
-    expect((await one.PATCH(await req(a, "PATCH", `/api/flights/${f.id}`, { notes: `Edited by ${who}` }), at)).status).toBe(p);
-    expect((await one.DELETE(await req(a, "DELETE", `/api/flights/${f.id}`), at)).status).toBe(d);
-
-    expect(await db().$count(flights, eq(flights.aircraft, `Made by ${who}`))).toBe(c === 201 ? 1 : 0);
-    const [after] = await db().select().from(flights).where(eq(flights.id, f.id));
-    expect(after.notes).toBe(p === 200 ? `Edited by ${who}` : null);
-    expect(after.archivedAt === null).toBe(d !== 200);
+  crudRoleMatrix({
+    path: "flights",
+    list,
+    one,
+    actors: () => actors,
+    expected: {
+      owner: [200, 201, 200, 200, 200],
+      pilot: [200, 201, 200, 200, 200],
+      reviewer: [200, 403, 200, 403, 403],
+      client: [200, 403, 200, 403, 403],
+      other: [200, 422, 404, 404, 404],
+      anonymous: [401, 401, 401, 401, 401],
+    },
+    make: (who) => makeFlight(orgId, { jobId, aircraft: `Matrix airframe ${who}` }),
+    createBody: (who) => flight({ aircraft: `Made by ${who}` }),
+    editBody: (who) => ({ notes: `Edited by ${who}` }),
+    effects: async (who, id, want) => {
+      expect(await db().$count(flights, eq(flights.aircraft, `Made by ${who}`))).toBe(want.create === 201 ? 1 : 0);
+      const [after] = await db().select().from(flights).where(eq(flights.id, id));
+      expect(after.notes).toBe(want.edit === 200 ? `Edited by ${who}` : null);
+      expect(after.archivedAt === null).toBe(want.archive !== 200);
+    },
   });
 
   it("another organisation's flight answers 404 to read, edit and archive, and stays as it was", async () => {

@@ -10,6 +10,7 @@ import { jobs } from "@/db/schema";
 import { demoActors, demoOrganisationId, req, route, type Actor, type DemoActorKey } from "@/tests/support/session";
 import { makeClient, makeFlight, makeJob, makeSite, makeMember } from "@/tests/support/factories";
 import { closeRedis } from "@/lib/queue/redis";
+import { crudRoleMatrix } from "@/tests/support/role-matrix";
 
 let actors: Record<DemoActorKey, Actor>;
 let orgId: string;
@@ -34,29 +35,28 @@ afterAll(async () => {
 const countJobs = () => db().$count(jobs);
 
 describe("authorization matrix", () => {
-  // actor, GET list, POST create, GET one, PATCH one, DELETE one (archive)
-  const cases: [DemoActorKey, number, number, number, number, number][] = [
-    ["owner", 200, 201, 200, 200, 200],
-    ["pilot", 200, 403, 200, 403, 403],
-    ["reviewer", 200, 403, 200, 403, 403],
-    ["client", 200, 403, 200, 403, 403],
-    ["other", 200, 422, 404, 404, 404],
-    ["anonymous", 401, 401, 401, 401, 401],
-  ];
-  it.each(cases)("%s: list %i, create %i, read %i, edit %i, archive %i", async (who, l, c, g, p, d) => {
-    const a = actors[who];
-    const job = await makeJob(orgId, { siteId, title: `Matrix job for ${who}` });
-    const at = route({ id: job.id });
-    expect((await list.GET(await req(a, "GET", "/api/jobs"))).status).toBe(l);
-    expect((await list.POST(await req(a, "POST", "/api/jobs", { siteId, title: `Made by ${who}` }))).status).toBe(c);
-    expect((await one.GET(await req(a, "GET", `/api/jobs/${job.id}`), at)).status).toBe(g);
-    expect((await one.PATCH(await req(a, "PATCH", `/api/jobs/${job.id}`, { status: "fieldwork" }), at)).status).toBe(p);
-    expect((await one.DELETE(await req(a, "DELETE", `/api/jobs/${job.id}`), at)).status).toBe(d);
-
-    expect(await db().$count(jobs, eq(jobs.title, `Made by ${who}`))).toBe(c === 201 ? 1 : 0);
-    const [after] = await db().select().from(jobs).where(eq(jobs.id, job.id));
-    expect(after.status).toBe(p === 200 ? "fieldwork" : "planned");
-    expect(after.archivedAt === null).toBe(d !== 200);
+  crudRoleMatrix({
+    path: "jobs",
+    list,
+    one,
+    actors: () => actors,
+    expected: {
+      owner: [200, 201, 200, 200, 200],
+      pilot: [200, 403, 200, 403, 403],
+      reviewer: [200, 403, 200, 403, 403],
+      client: [200, 403, 200, 403, 403],
+      other: [200, 422, 404, 404, 404],
+      anonymous: [401, 401, 401, 401, 401],
+    },
+    make: (who) => makeJob(orgId, { siteId, title: `Matrix job for ${who}` }),
+    createBody: (who) => ({ siteId, title: `Made by ${who}` }),
+    editBody: () => ({ status: "fieldwork" }),
+    effects: async (who, id, want) => {
+      expect(await db().$count(jobs, eq(jobs.title, `Made by ${who}`))).toBe(want.create === 201 ? 1 : 0);
+      const [after] = await db().select().from(jobs).where(eq(jobs.id, id));
+      expect(after.status).toBe(want.edit === 200 ? "fieldwork" : "planned");
+      expect(after.archivedAt === null).toBe(want.archive !== 200);
+    },
   });
 
   it("another organisation's job answers 404 to read, edit and archive, and stays as it was", async () => {

@@ -10,6 +10,7 @@ import { sites } from "@/db/schema";
 import { demoActors, demoOrganisationId, req, route, type Actor, type DemoActorKey } from "@/tests/support/session";
 import { makeClient, makeSite } from "@/tests/support/factories";
 import { closeRedis } from "@/lib/queue/redis";
+import { crudRoleMatrix } from "@/tests/support/role-matrix";
 
 let actors: Record<DemoActorKey, Actor>;
 let orgId: string;
@@ -35,31 +36,29 @@ afterAll(async () => {
 const countSites = () => db().$count(sites);
 
 describe("authorization matrix", () => {
-  // actor, GET list, POST create, GET one, PATCH one, DELETE one (archive)
-  const cases: [DemoActorKey, number, number, number, number, number][] = [
-    ["owner", 200, 201, 200, 200, 200],
-    ["pilot", 200, 403, 200, 403, 403],
-    ["reviewer", 200, 403, 200, 403, 403],
-    ["client", 200, 403, 200, 403, 403],
-    // another organisation's owner may write sites, but this organisation's client and site are unknown to it
-    ["other", 200, 422, 404, 404, 404],
-    ["anonymous", 401, 401, 401, 401, 401],
-  ];
-  it.each(cases)("%s: list %i, create %i, read %i, edit %i, archive %i", async (who, l, c, g, p, d) => {
-    const a = actors[who];
-    const site = await makeSite(orgId, { clientId, name: `Matrix site for ${who}` });
-    const at = route({ id: site.id });
-    expect((await list.GET(await req(a, "GET", "/api/sites"))).status).toBe(l);
-    expect((await list.POST(await req(a, "POST", "/api/sites", { clientId, name: `Made by ${who}` }))).status).toBe(c);
-    expect((await one.GET(await req(a, "GET", `/api/sites/${site.id}`), at)).status).toBe(g);
-    expect((await one.PATCH(await req(a, "PATCH", `/api/sites/${site.id}`, { name: `Renamed by ${who}` }), at)).status).toBe(p);
-    expect((await one.DELETE(await req(a, "DELETE", `/api/sites/${site.id}`), at)).status).toBe(d);
-
-    const made = await db().$count(sites, eq(sites.name, `Made by ${who}`));
-    expect(made).toBe(c === 201 ? 1 : 0);
-    const [after] = await db().select().from(sites).where(eq(sites.id, site.id));
-    expect(after.name).toBe(p === 200 ? `Renamed by ${who}` : `Matrix site for ${who}`);
-    expect(after.archivedAt === null).toBe(d !== 200);
+  crudRoleMatrix({
+    path: "sites",
+    list,
+    one,
+    actors: () => actors,
+    expected: {
+      owner: [200, 201, 200, 200, 200],
+      pilot: [200, 403, 200, 403, 403],
+      reviewer: [200, 403, 200, 403, 403],
+      client: [200, 403, 200, 403, 403],
+      // another organisation's owner may write sites, but this organisation's client and site are unknown to it
+      other: [200, 422, 404, 404, 404],
+      anonymous: [401, 401, 401, 401, 401],
+    },
+    make: (who) => makeSite(orgId, { clientId, name: `Matrix site for ${who}` }),
+    createBody: (who) => ({ clientId, name: `Made by ${who}` }),
+    editBody: (who) => ({ name: `Renamed by ${who}` }),
+    effects: async (who, id, want) => {
+      expect(await db().$count(sites, eq(sites.name, `Made by ${who}`))).toBe(want.create === 201 ? 1 : 0);
+      const [after] = await db().select().from(sites).where(eq(sites.id, id));
+      expect(after.name).toBe(want.edit === 200 ? `Renamed by ${who}` : `Matrix site for ${who}`);
+      expect(after.archivedAt === null).toBe(want.archive !== 200);
+    },
   });
 
   it("another organisation's site answers 404 to read, edit and archive, and stays as it was", async () => {
