@@ -21,10 +21,11 @@ export function ClientsView({ canWrite }: { canWrite: boolean }) {
   const [editing, setEditing] = useState<ClientRow | "new" | null>(null);
   const columns: ColumnDef<ClientRow, unknown>[] = [
     { id: "name", header: "Client", accessorKey: "name", cell: (c) => <span className="font-medium">{c.row.original.name}</span> },
-    { id: "contactName", header: "Contact", accessorKey: "contactName", cell: (c) => c.row.original.contactName ?? "—" },
-    { id: "contactEmail", header: "E-mail", accessorKey: "contactEmail", enableSorting: false, cell: (c) => c.row.original.contactEmail ?? "—" },
+    { id: "contactName", meta: { hideBelow: "md" }, header: "Contact", accessorKey: "contactName", cell: (c) => c.row.original.contactName ?? "—" },
+    { id: "contactEmail", meta: { hideBelow: "lg" }, header: "E-mail", accessorKey: "contactEmail", enableSorting: false, cell: (c) => c.row.original.contactEmail ?? "—" },
     {
       id: "siteCount",
+      meta: { hideBelow: "md" },
       header: "Sites",
       accessorKey: "siteCount",
       enableSorting: false,

@@ -62,12 +62,12 @@ export function FlightsTable({ units, jobId, empty }: { units: AltitudeUnit; job
               </Link>
             ),
           },
-          { id: "siteName", header: "Site", accessorKey: "siteName" },
+          { id: "siteName", meta: { hideBelow: "md" }, header: "Site", accessorKey: "siteName" },
         ] as ColumnDef<FlightRow, unknown>[])),
-    { id: "pilotName", header: "Pilot in command", accessorKey: "pilotName", cell: (c) => c.row.original.pilotName ?? <span className="text-ink-2">Not recorded</span> },
-    { id: "aircraft", header: "Aircraft", accessorKey: "aircraft", cell: (c) => c.row.original.aircraft ?? <span className="text-ink-2">—</span> },
-    { id: "maxAltitudeAglM", header: "Max altitude", accessorKey: "maxAltitudeAglM", cell: (c) => <AltitudeCell metres={c.row.original.maxAltitudeAglM} units={units} /> },
-    { id: "launch", header: "Launch point", enableSorting: false, cell: (c) => <Coordinates lat={c.row.original.launchLatitude} lon={c.row.original.launchLongitude} /> },
+    { id: "pilotName", meta: { hideBelow: "lg" }, header: "Pilot in command", accessorKey: "pilotName", cell: (c) => c.row.original.pilotName ?? <span className="text-ink-2">Not recorded</span> },
+    { id: "aircraft", meta: { hideBelow: "md" }, header: "Aircraft", accessorKey: "aircraft", cell: (c) => c.row.original.aircraft ?? <span className="text-ink-2">—</span> },
+    { id: "maxAltitudeAglM", meta: { hideBelow: "lg" }, header: "Max altitude", accessorKey: "maxAltitudeAglM", cell: (c) => <AltitudeCell metres={c.row.original.maxAltitudeAglM} units={units} /> },
+    { id: "launch", meta: { hideBelow: "xl" }, header: "Launch point", enableSorting: false, cell: (c) => <Coordinates lat={c.row.original.launchLatitude} lon={c.row.original.launchLongitude} /> },
   ];
   return (
     <ResourceTable<FlightRow>

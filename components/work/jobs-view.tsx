@@ -79,11 +79,11 @@ export function JobsView({ canWrite, me }: { canWrite: boolean; me: { userId: st
         );
       },
     },
-    { id: "siteName", header: "Site", accessorKey: "siteName" },
-    { id: "clientName", header: "Client", accessorKey: "clientName" },
-    { id: "pilotName", header: "Pilot", accessorKey: "pilotName", cell: (c) => person(c.row.original.pilotName) },
-    { id: "reviewerName", header: "Reviewer", accessorKey: "reviewerName", cell: (c) => person(c.row.original.reviewerName) },
-    { id: "flightCount", header: "Flights", accessorKey: "flightCount", enableSorting: false },
+    { id: "siteName", meta: { hideBelow: "md" }, header: "Site", accessorKey: "siteName" },
+    { id: "clientName", meta: { hideBelow: "lg" }, header: "Client", accessorKey: "clientName" },
+    { id: "pilotName", meta: { hideBelow: "lg" }, header: "Pilot", accessorKey: "pilotName", cell: (c) => person(c.row.original.pilotName) },
+    { id: "reviewerName", meta: { hideBelow: "xl" }, header: "Reviewer", accessorKey: "reviewerName", cell: (c) => person(c.row.original.reviewerName) },
+    { id: "flightCount", meta: { hideBelow: "md" }, header: "Flights", accessorKey: "flightCount", enableSorting: false },
   ];
 
   return (

@@ -24,13 +24,14 @@ export function SitesView({ canWrite }: { canWrite: boolean }) {
 
   const columns: ColumnDef<Row, unknown>[] = [
     { id: "name", header: "Site", accessorKey: "name", cell: (c) => <span className="font-medium">{c.row.original.name}</span> },
-    { id: "clientName", header: "Client", accessorKey: "clientName" },
-    { id: "assetKind", header: "Structure", accessorKey: "assetKind", cell: (c) => ASSET_KIND_LABELS[c.row.original.assetKind] },
-    { id: "address", header: "Address", enableSorting: false, cell: (c) => c.row.original.address ?? <span className="text-ink-2">—</span> },
-    { id: "position", header: "Position", enableSorting: false, cell: (c) => <Coordinates lat={c.row.original.latitude} lon={c.row.original.longitude} /> },
-    { id: "timeZone", header: "Time zone", accessorKey: "timeZone", cell: (c) => <span className="font-mono text-xs">{c.row.original.timeZone}</span> },
+    { id: "clientName", meta: { hideBelow: "md" }, header: "Client", accessorKey: "clientName" },
+    { id: "assetKind", meta: { hideBelow: "lg" }, header: "Structure", accessorKey: "assetKind", cell: (c) => ASSET_KIND_LABELS[c.row.original.assetKind] },
+    { id: "address", meta: { hideBelow: "xl" }, header: "Address", enableSorting: false, cell: (c) => c.row.original.address ?? <span className="text-ink-2">—</span> },
+    { id: "position", meta: { hideBelow: "lg" }, header: "Position", enableSorting: false, cell: (c) => <Coordinates lat={c.row.original.latitude} lon={c.row.original.longitude} /> },
+    { id: "timeZone", meta: { hideBelow: "xl" }, header: "Time zone", accessorKey: "timeZone", cell: (c) => <span className="font-mono text-xs">{c.row.original.timeZone}</span> },
     {
       id: "jobCount",
+      meta: { hideBelow: "md" },
       header: "Jobs",
       enableSorting: false,
       cell: (c) => (

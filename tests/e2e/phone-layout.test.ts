@@ -100,6 +100,14 @@ describe("workspace pages on a 390 px phone", () => {
     const details = page.locator(`[id="${await toggle.getAttribute("aria-controls")}"]`);
     expect(await details.getByRole("term").filter({ hasText: "SHA-256" }).isVisible()).toBe(true);
     expect(await details.locator("[data-hash]").isVisible()).toBe(true);
+    // the jobs list likewise: title and status stay, the reviewer moves into the details
+    await page.goto("/jobs");
+    const jobRow = page.locator("tbody tr").filter({ has: page.getByRole("button", { name: "Details" }) }).first();
+    await jobRow.waitFor();
+    expect(await page.getByRole("columnheader", { name: "Job" }).isVisible()).toBe(true);
+    expect(await page.getByRole("columnheader", { name: "Reviewer" }).isVisible()).toBe(false);
+    await jobRow.getByRole("button", { name: "Details" }).click();
+    expect(await page.getByRole("term").filter({ hasText: "Reviewer" }).first().isVisible()).toBe(true);
     await ctx.close();
   });
 
