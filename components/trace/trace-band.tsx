@@ -82,12 +82,10 @@ export function TraceBand({
             {events.map((e) => {
               const text = (
                 <>
-                  <span className="w-6 shrink-0 text-right text-ink-2">{e.n}.</span>
-                  <LinkEventShape event={e.event} size={11} />
-                  <span className="font-sans font-medium">{e.word}</span>
-                  <span>at {timeOf(e)}</span>
-                  <span className="text-ink-2">frame {e.atFrame}</span>
-                  {e.lengthWords && <span className="text-ink-2">· {e.lengthWords}</span>}
+                  {/* spaces between the parts, so the text read out is the text shown */}
+                  <span className="w-6 shrink-0 text-right text-ink-2">{e.n}.</span> <LinkEventShape event={e.event} size={11} />{" "}
+                  <span className="font-sans font-medium">{e.word}</span> <span>at {timeOf(e)},</span> <span className="text-ink-2">frame {e.atFrame}</span>
+                  {e.lengthWords && <span className="text-ink-2">, {e.lengthWords}</span>}
                 </>
               );
               return (
@@ -97,9 +95,10 @@ export function TraceBand({
                       type="button"
                       className="flex min-h-7 w-full flex-wrap items-center gap-x-2 rounded px-1 text-left hover:bg-paper-2"
                       onClick={() => onSeek(e.atSec)}
-                      aria-label={`${e.n}. ${e.word} at ${timeOf(e)}, frame ${e.atFrame}${e.lengthWords ? `, ${e.lengthWords}` : ""}: go there`}
                     >
                       {text}
+                      {/* the name is the visible text, then what the button does (WCAG 2.5.3, label in name) */}
+                      <span className="sr-only">: go there</span>
                     </button>
                   ) : (
                     <span className="flex flex-wrap items-center gap-x-2 px-1">{text}</span>

@@ -136,7 +136,8 @@ describe("a damaged recording in the review room", () => {
     const events = page.getByTestId("trace-event");
     await events.first().waitFor();
     // numbered in time order, in the crew's words; the first loss is 13 frames at slot 40
-    const labels = await page.locator("[data-testid=trace-event] button").evaluateAll((els) => els.map((e) => e.getAttribute("aria-label") ?? ""));
+    // each button's name is its visible text (no separate label), then what it does
+    const labels = await page.locator("[data-testid=trace-event] button").evaluateAll((els) => els.map((e) => (e.textContent ?? "").replace(/\s+/g, " ").trim()));
     expect(labels[0]).toMatch(/^1\. Video lost at 00:00:01\.334, frame 40, (at least )?13 frames, 0\.433 s: go there$/);
     expect(labels.map((l) => Number(/^(\d+)\./.exec(l)![1]))).toEqual(labels.map((_, i) => i + 1));
     const frames = labels.map((l) => Number(/, frame (\d+)/.exec(l)![1]));
@@ -186,7 +187,7 @@ describe("a damaged recording in the review room", () => {
   it("seeks past the damage, steps frames, and marks a finding whose still is that recorder frame", { timeout: 120_000 }, async () => {
     // "Video back" after the scrambled pictures (100-104): the picture is clear again by the IDR at 120
     const backs = page.locator("[data-testid=trace-event][data-event=reacquired] button");
-    const backLabels = await backs.evaluateAll((els) => els.map((e) => e.getAttribute("aria-label") ?? ""));
+    const backLabels = await backs.evaluateAll((els) => els.map((e) => (e.textContent ?? "").replace(/\s+/g, " ").trim()));
     const backFrames = backLabels.map((l) => Number(/, frame (\d+)/.exec(l)![1]));
     const i = backFrames.findIndex((f) => f > 104 && f <= 130);
     expect(i, `a "Video back" event between the scrambled pictures and slot 130: ${backLabels.join(" | ")}`).toBeGreaterThanOrEqual(0);
@@ -291,7 +292,7 @@ describe("a damaged recording in the review room", () => {
     await expect.poll(frameText).toContain(`of ${figures.frameSlots}, at least ${figures.framesLost} lost`);
     const summary = page.getByRole("region", { name: "Signal trace" });
     expect(await summary.getByTestId("lost-frames").innerText()).toBe(`at least ${figures.framesLost}`);
-    const labels = await page.locator("[data-testid=trace-event][data-event=total_loss] button").evaluateAll((els) => els.map((e) => e.getAttribute("aria-label") ?? ""));
+    const labels = await page.locator("[data-testid=trace-event][data-event=total_loss] button").evaluateAll((els) => els.map((e) => (e.textContent ?? "").replace(/\s+/g, " ").trim()));
     expect(labels.length).toBeGreaterThan(0);
     for (const l of labels) expect(l).toMatch(/Video lost at .*, at least \d+ frames?, /);
     await page.getByTestId("trace-band").scrollIntoViewIfNeeded();

@@ -76,6 +76,9 @@ describe("decode-error safety net", () => {
   it("a bare video element stops for good on this rendition (the failure the net is for)", { timeout: 60_000 }, async () => {
     await page.goto(`/recordings/${rec.recording.id}`);
     await page.getByRole("heading", { name: "BREAK0001.264" }).waitFor();
+    // the player sets its source after it mounts: read the address only once it is there (read too
+    // early, the empty address fetched the page itself, a 200, in one loaded fresh-clone run)
+    await page.waitForFunction(() => !!(document.querySelector("[data-testid=review-video] video") as HTMLVideoElement | null)?.currentSrc);
     const src = await page.evaluate(() => (document.querySelector("[data-testid=review-video] video") as HTMLVideoElement).currentSrc);
     const bare = await page.evaluate(
       (url) =>
