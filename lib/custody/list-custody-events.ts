@@ -195,7 +195,11 @@ export async function listCustodyRecordingChoices(organisationId: string, jobId?
 
 /** Every event of the trail in chain order, for export (streamed in pages by seq). */
 export async function* custodyTrail(organisationId: string, filter: CustodyTrailFilter, pageSize = 2000) {
-  const where = await trailCondition(organisationId, filter);
+  yield* eventsInChainOrder(await trailCondition(organisationId, filter), pageSize);
+}
+
+/** The events matching `where`, with their actors' names, in chain order, read in keyset pages of seq. */
+export async function* eventsInChainOrder(where: SQL | undefined, pageSize = 2000) {
   let after = 0;
   for (;;) {
     const rows = await db()
@@ -205,9 +209,8 @@ export async function* custodyTrail(organisationId: string, filter: CustodyTrail
       .where(and(where, sql`${custodyEvents.seq} > ${after}`))
       .orderBy(asc(custodyEvents.seq))
       .limit(pageSize);
-    if (rows.length === 0) return;
     for (const r of rows) yield { ...r.event, actorName: r.actorName };
-    after = rows[rows.length - 1].event.seq;
     if (rows.length < pageSize) return;
+    after = rows[rows.length - 1].event.seq;
   }
 }

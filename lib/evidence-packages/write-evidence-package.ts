@@ -16,6 +16,7 @@ import type { CustodyCheckpoint, EvidencePackage } from "@/db/schema/types";
 import { csvRecord } from "@/lib/csv/write-csv";
 import { custodyCsvHeader, custodyCsvRow, custodyJsonEvent, HASH_RULE, type ExportedEvent } from "@/lib/custody/export-custody-log";
 import { checkpointStatement } from "@/lib/custody/checkpoint-statement";
+import { eventsInChainOrder } from "@/lib/custody/list-custody-events";
 import { makeCheckpoint } from "@/lib/custody/make-checkpoint";
 import { readKey, storePath } from "@/lib/storage/local-store";
 import { evidencePackageKey } from "@/lib/storage/storage-keys";
@@ -44,20 +45,7 @@ const selectionOf = (p: EvidencePackage) => ({ jobId: p.jobId, flightId: p.fligh
 
 /** The package's events up to `maxSeq`: the chain position counted and checkpointed before writing. */
 async function* trailEvents(organisationId: string, contents: PackageContents, maxSeq: number, pageSize = 2000): AsyncGenerator<ExportedEvent> {
-  const where = and(packageTrailCondition(organisationId, contents), sql`${custodyEvents.seq} <= ${maxSeq}`);
-  let after = 0;
-  for (;;) {
-    const rows = await db()
-      .select({ event: custodyEvents, actorName: users.name })
-      .from(custodyEvents)
-      .leftJoin(users, eq(users.id, custodyEvents.actorUserId))
-      .where(and(where, sql`${custodyEvents.seq} > ${after}`))
-      .orderBy(asc(custodyEvents.seq))
-      .limit(pageSize);
-    for (const r of rows) yield { ...r.event, actorName: r.actorName };
-    if (rows.length < pageSize) return;
-    after = rows[rows.length - 1].event.seq;
-  }
+  yield* eventsInChainOrder(and(packageTrailCondition(organisationId, contents), sql`${custodyEvents.seq} <= ${maxSeq}`), pageSize);
 }
 
 /** The first checkpoint whose chain head is at or after `seq`; made now when none is (null if that fails). */
