@@ -115,7 +115,7 @@ async function main() {
   const s = await import("@/db/schema");
   const { runMigrations } = await import("@/db/migrate");
   const { originalKey } = await import("@/lib/storage/storage-keys");
-  const { storePath } = await import("@/lib/storage/local-store");
+  const { diskPath: storePath } = await import("@/tests/support/stored-files"); // the benchmark hard-links files into the disk store
   const { requestEvidencePackage } = await import("@/lib/evidence-packages/request-evidence-package");
   const { recordCustodyEvent } = await import("@/lib/custody/record-custody-event");
   const { eq } = await import("drizzle-orm");

@@ -81,7 +81,7 @@ async function main() {
   const { db, closeDb } = await import("@/db/client");
   const { recordings } = await import("@/db/schema");
   const { eq } = await import("drizzle-orm");
-  const { removeKey } = await import("@/lib/storage/local-store");
+  const { removeKey } = await import("@/lib/storage/store");
   const { closeQueues } = await import("@/lib/queue/jobs");
   const { closeRedis } = await import("@/lib/queue/redis");
   const { UPLOAD_CHUNK_BYTES } = await import("@/lib/uploads/upload-limits");

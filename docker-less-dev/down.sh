@@ -1,10 +1,10 @@
 #!/usr/bin/env bash
 # Stops the local services of this checkout's data folder, cleanly (PostgreSQL fast shutdown, Redis
-# SHUTDOWN, the mail server's and the time-stamping authority's process groups SIGTERM). With
-# arguments, only those of postgres, redis, smtp, tsa (the names up.sh writes to CAIRN_STARTED_LIST);
-# without, all four.
+# SHUTDOWN, the mail server's and the time-stamping authority's process groups SIGTERM, the local S3 server's too). With
+# arguments, only those of postgres, redis, smtp, tsa, s3 (the names up.sh writes to CAIRN_STARTED_LIST);
+# without, all five.
 source "$(dirname "${BASH_SOURCE[0]}")/lib.sh"
-want=("$@"); [ ${#want[@]} -gt 0 ] || want=(postgres redis smtp tsa)
+want=("$@"); [ ${#want[@]} -gt 0 ] || want=(postgres redis smtp tsa s3)
 wants() { local w; for w in "${want[@]}"; do [ "$w" = "$1" ] && return 0; done; return 1; }
 
 if wants postgres; then
@@ -25,4 +25,5 @@ if wants redis && redis-cli -h 127.0.0.1 -p "$REDIS_PORT" ping >/dev/null 2>&1; 
 fi
 if wants smtp && stop_node_service docker-less-dev/fake-smtp.ts "$SMTP_PIDFILE"; then log "fake mail server stopped"; fi
 if wants tsa && stop_node_service docker-less-dev/fake-tsa.ts "$TSA_PIDFILE"; then log "fake time-stamping authority stopped"; fi
+if wants s3 && stop_node_service docker-less-dev/fake-s3.ts "$S3_PIDFILE"; then log "local S3 server stopped"; fi
 exit 0

@@ -8,6 +8,7 @@ PG_PORT="${CAIRN_PG_PORT:-54329}"
 REDIS_PORT="${CAIRN_REDIS_PORT:-63799}"
 SMTP_PORT="${CAIRN_SMTP_PORT:-2525}"
 TSA_PORT="${CAIRN_TSA_PORT:-3399}"
+S3_PORT="${CAIRN_S3_PORT:-4569}"
 PG_DATA="$DATA/postgres"
 PG_RUN="$DATA/postgres-run"
 PG_LOG="$DATA/logs/postgres.log"
@@ -18,7 +19,8 @@ PG_APPUSER="cairn_app"
 PG_APPPASS="cairn_app_local"
 SMTP_PIDFILE="$DATA/mail-server.pid"
 TSA_PIDFILE="$DATA/tsa-server.pid"
-# When set, up.sh appends the name of each service it started itself (postgres, redis, smtp, tsa) to this
+S3_PIDFILE="$DATA/s3-server.pid"
+# When set, up.sh appends the name of each service it started itself (postgres, redis, smtp, tsa, s3) to this
 # file, so the caller can stop exactly those and leave alone what was already running.
 STARTED_LIST="${CAIRN_STARTED_LIST:-}"
 
@@ -41,6 +43,11 @@ export_local_env() {
   export UPLOAD_DIR="${UPLOAD_DIR:-$DATA/uploads}"
   export SECRETS_FILE="${SECRETS_FILE:-$DATA/secrets/installation.json}"
   export TSA_URL="${TSA_URL:-http://127.0.0.1:$TSA_PORT/}"
+  export SCRATCH_DIR="${SCRATCH_DIR:-$DATA/scratch}"
+  # the local S3 server (docker-less-dev/fake-s3.ts), when the bucket store is chosen and no endpoint is given
+  if [ "${STORAGE_BACKEND:-disk}" = "s3" ] && [ -z "${S3_ENDPOINT:-}" ]; then
+    export S3_ENDPOINT="http://127.0.0.1:$S3_PORT" S3_ACCESS_KEY_ID="${S3_ACCESS_KEY_ID:-S3RVER}" S3_SECRET_ACCESS_KEY="${S3_SECRET_ACCESS_KEY:-S3RVER}"
+  fi
   # Next.js would otherwise try to send anonymous usage data: nothing of ours reaches out at run time
   export NEXT_TELEMETRY_DISABLED=1
 }

@@ -1,7 +1,8 @@
 #!/usr/bin/env bash
-# Starts PostgreSQL, Redis and the fake mail server on loopback with data under .data/.
-# Idempotent: anything already running is left alone. With DATABASE_URL / REDIS_URL / SMTP_URL
-# set in the environment, that service is external and nothing is started for it.
+# Starts PostgreSQL, Redis, the fake mail server, the fake time-stamping authority and, for the bucket
+# store (STORAGE_BACKEND=s3), the local S3 server, on loopback with data under .data/.
+# Idempotent: anything already running is left alone. With DATABASE_URL / REDIS_URL / SMTP_URL /
+# TSA_URL / S3_ENDPOINT set in the environment, that service is external and nothing is started for it.
 source "$(dirname "${BASH_SOURCE[0]}")/lib.sh"
 bash "$ROOT/docker-less-dev/install-packages.sh"
 mkdir -p "$DATA/logs"
@@ -88,7 +89,22 @@ start_tsa() {
   log "fake time-stamping authority on 127.0.0.1:$TSA_PORT (certificates in $DATA/tsa)"
 }
 
+# The local S3 server (docker-less-dev/fake-s3.ts, s3rver from npm), for the bucket store.
+start_s3() {
+  if port_open "$S3_PORT"; then
+    log "local S3 server already running on 127.0.0.1:$S3_PORT"; return
+  fi
+  start_node_service docker-less-dev/fake-s3.ts "$S3_PIDFILE" "$DATA/logs/fake-s3.log" CAIRN_S3_PORT="$S3_PORT" CAIRN_S3_DIR="$DATA/s3"
+  for _ in $(seq 1 300); do port_open "$S3_PORT" && break; sleep 0.1; done
+  port_open "$S3_PORT" || { log "local S3 server did not start: see $DATA/logs/fake-s3.log"; exit 1; }
+  note_started s3
+  log "local S3 server on 127.0.0.1:$S3_PORT (objects in $DATA/s3)"
+}
+
 if [ -n "${DATABASE_URL:-}" ]; then log "DATABASE_URL set: using that PostgreSQL"; else start_postgres; fi
 if [ -n "${REDIS_URL:-}" ]; then log "REDIS_URL set: using that Redis"; else start_redis; fi
 if [ -n "${SMTP_URL:-}" ]; then log "SMTP_URL set: using that mail server"; else start_smtp; fi
 if [ -n "${TSA_URL:-}" ]; then log "TSA_URL set: using that time-stamping authority"; else start_tsa; fi
+if [ "${STORAGE_BACKEND:-disk}" = "s3" ] || [ "${CAIRN_NEED_S3:-}" = "1" ]; then
+  if [ -n "${S3_ENDPOINT:-}" ]; then log "S3_ENDPOINT set: using that object storage"; else start_s3; fi
+fi

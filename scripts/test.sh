@@ -19,17 +19,20 @@ stop_started() {
   exit $status
 }
 trap stop_started EXIT
-up_log="$(CAIRN_STARTED_LIST="$started" CAIRN_NEED_BROWSER=1 bash docker-less-dev/up.sh | tee /dev/stderr)"
+up_log="$(CAIRN_STARTED_LIST="$started" CAIRN_NEED_BROWSER=1 CAIRN_NEED_S3=1 bash docker-less-dev/up.sh | tee /dev/stderr)"
 grep -q "PostgreSQL already running" <<<"$up_log" && found_running="$found_running PostgreSQL"
 grep -q "Redis already running" <<<"$up_log" && found_running="$found_running Redis"
 grep -q "fake mail server already running" <<<"$up_log" && found_running="$found_running fake-mail-server"
 grep -q "fake time-stamping authority already running" <<<"$up_log" && found_running="$found_running fake-time-stamping-authority"
+grep -q "local S3 server already running" <<<"$up_log" && found_running="$found_running local-S3-server"
 echo "[cairn] type check"
 npx tsc --noEmit
 echo "[cairn] unit tests"
 npx vitest run --project unit
 echo "[cairn] integration tests (real PostgreSQL, Redis, ffmpeg)"
 npx vitest run --project integration
+echo "[cairn] the storage, ingest, processing and sharing integration tests again, on the S3 store (local S3 server)"
+STORAGE_BACKEND=s3 npx vitest run --project integration tests/integration/storage tests/integration/ingest tests/integration/processing tests/integration/sharing
 echo "[cairn] building the web app for the browser tests"
 # a parallel test slot builds into a folder of its own (tests/support/test-env.ts)
 if [ -n "${CAIRN_TEST_SLOT:-}" ] && [ "${CAIRN_TEST_SLOT}" != "0" ]; then export NEXT_DIST_DIR=".next-test-${CAIRN_TEST_SLOT}"; fi

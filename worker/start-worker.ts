@@ -11,6 +11,7 @@ import { JOB_SETTINGS, closeQueues, queue, type JobName } from "@/lib/queue/jobs
 import { handlers } from "./handlers";
 import { runWithTimeout } from "./run-with-timeout";
 import { reconcileJobs } from "./reconcile-jobs";
+import { removeDeadScratch } from "@/lib/storage/scratch";
 import { finalFailureReason, markRecordingFailed, markRecordingRetrying } from "./mark-recording-failed";
 import { workerTimings, type WorkerTimings } from "./worker-options";
 import { checkpointSettings } from "@/lib/custody/checkpoint-settings";
@@ -46,6 +47,10 @@ export async function startWorker(options: StartOptions = {}): Promise<RunningWo
   const shutdown = new AbortController();
   const connections: IORedis[] = [];
   const names = (Object.keys(JOB_SETTINGS) as JobName[]).filter((n) => !options.only || options.only.includes(n));
+  // a worker killed mid-job on this machine left its scratch folder behind: its jobs go to another
+  // worker (BullMQ's stalled-job check), its files are removed here
+  const deadScratch = await removeDeadScratch().catch(() => 0);
+  if (deadScratch) log(`removed the scratch folders of ${deadScratch} stopped process(es)`);
 
   const workers = names.map((name) => {
     const settings = JOB_SETTINGS[name];

@@ -19,7 +19,7 @@ import * as s from "@/db/schema";
 import { sha256OfStream } from "@/lib/custody/sha256-stream";
 import { recordCustodyEvent } from "@/lib/custody/record-custody-event";
 import { insertRecordingRow } from "@/lib/recordings/insert-recording-row";
-import { placeOriginal } from "@/lib/storage/local-store";
+import { placeOriginal } from "@/lib/storage/store";
 import { originalKey } from "@/lib/storage/storage-keys";
 import { enqueue } from "@/lib/queue/jobs";
 import { runFfmpeg } from "@/lib/processing/ffmpeg";

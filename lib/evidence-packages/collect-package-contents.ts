@@ -8,7 +8,7 @@ import { and, asc, eq, inArray, isNull, or, sql, type SQL } from "drizzle-orm";
 import { db } from "@/db/client";
 import { clients, custodyEvents, findings, flights, jobs, organisations, recordings, renditions, reports, sites, stills } from "@/db/schema";
 import { ApiError, notFound } from "@/lib/api/errors";
-import { statKey } from "@/lib/storage/local-store";
+import { statKey } from "@/lib/storage/store";
 import { cleanFileName, recordingFolder } from "./package-layout";
 
 export type PackageSelection = { jobId: string; flightId?: string | null; recordingIds?: string[] | null };

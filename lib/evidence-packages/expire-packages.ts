@@ -4,7 +4,7 @@ import "server-only";
 import { and, eq, lte } from "drizzle-orm";
 import { db } from "@/db/client";
 import { evidencePackages } from "@/db/schema";
-import { removeKey } from "@/lib/storage/local-store";
+import { removeKey } from "@/lib/storage/store";
 
 export async function expirePackages(now: Date): Promise<string[]> {
   const gone = await db()

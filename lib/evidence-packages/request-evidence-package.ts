@@ -8,7 +8,7 @@ import { count } from "drizzle-orm";
 import { db } from "@/db/client";
 import { custodyEvents, evidencePackages } from "@/db/schema";
 import type { Member } from "@/lib/auth/load-member";
-import { env } from "@/lib/config/env";
+import { localSpaceFolder } from "@/lib/storage/store";
 import { enqueue } from "@/lib/queue/jobs";
 import { checkFreeSpace } from "./check-free-space";
 import { collectPackageContents, estimatePackageBytes, packageTrailCondition, type PackageSelection } from "./collect-package-contents";
@@ -22,7 +22,7 @@ export async function requestEvidencePackage(member: Pick<Member, "organisationI
   const [{ n }] = await db().select({ n: count() }).from(custodyEvents).where(packageTrailCondition(member.organisationId, contents));
   const estimatedBytes = estimatePackageBytes(contents, n);
   const settings = packageSettings();
-  const disk = await checkFreeSpace(env().storageDir, estimatedBytes, settings.diskReserveBytes);
+  const disk = await checkFreeSpace(await localSpaceFolder(), estimatedBytes, settings.diskReserveBytes);
   const [row] = await db()
     .insert(evidencePackages)
     .values({

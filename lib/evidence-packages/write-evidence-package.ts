@@ -5,9 +5,8 @@
 // read-only. The originals' bytes are checked against the SHA-256 recorded at upload on the way.
 import "server-only";
 import { createReadStream, createWriteStream } from "node:fs";
-import { chmod, mkdir, open, rename, rm } from "node:fs/promises";
-import { createHash, randomUUID } from "node:crypto";
-import path from "node:path";
+import { open, rm } from "node:fs/promises";
+import { createHash } from "node:crypto";
 import { Readable } from "node:stream";
 import { and, asc, count, desc, eq, gte, max, sql } from "drizzle-orm";
 import { db } from "@/db/client";
@@ -18,9 +17,9 @@ import { custodyCsvHeader, custodyCsvRow, custodyJsonEvent, HASH_RULE, type Expo
 import { checkpointStatement } from "@/lib/custody/checkpoint-statement";
 import { eventsInChainOrder } from "@/lib/custody/list-custody-events";
 import { makeCheckpoint } from "@/lib/custody/make-checkpoint";
-import { readKey, storePath } from "@/lib/storage/local-store";
+import { localSpaceFolder, putStoredFile, readKey } from "@/lib/storage/store";
+import { scratchFile } from "@/lib/storage/scratch";
 import { evidencePackageKey } from "@/lib/storage/storage-keys";
-import { env } from "@/lib/config/env";
 import { collectPackageContents, estimatePackageBytes, packageTrailCondition, type PackageContents } from "./collect-package-contents";
 import { checkFreeSpace } from "./check-free-space";
 import { bagName } from "./package-layout";
@@ -84,7 +83,7 @@ export async function writeEvidencePackage(pkg: EvidencePackage, opts: { signal?
 
   const settings = packageSettings();
   const estimate = estimatePackageBytes(contents, n);
-  await checkFreeSpace(env().storageDir, estimate, settings.diskReserveBytes);
+  await checkFreeSpace(await localSpaceFolder(), estimate, settings.diskReserveBytes);
 
   const [maker] = pkg.createdBy ? await db().select({ name: users.name, email: users.email }).from(users).where(eq(users.id, pkg.createdBy)) : [];
   const name = bagName(contents.job.title, pkg.id, now);
@@ -170,9 +169,7 @@ export async function writeEvidencePackage(pkg: EvidencePackage, opts: { signal?
   }
 
   const key = evidencePackageKey(pkg.organisationId, pkg.id);
-  const dest = storePath(key);
-  await mkdir(path.dirname(dest), { recursive: true });
-  const temp = `${dest}.part-${process.pid}-${randomUUID()}`;
+  const temp = await scratchFile(`package-${pkg.id}.zip`);
   const totalBytes = Math.max(1, contents.files.reduce((a, f) => a + f.sizeBytes, 0));
   let lastPercent = -1;
   try {
@@ -198,8 +195,7 @@ export async function writeEvidencePackage(pkg: EvidencePackage, opts: { signal?
     // the package is a single verified file: what is on disk is what was hashed while writing
     const onDisk = await sha256OfFile(temp);
     if (onDisk !== written.zipSha256) throw new PackageVerifyError(`the written package reads back as SHA-256 ${onDisk}, not ${written.zipSha256}`);
-    await rename(temp, dest);
-    await chmod(dest, 0o444);
+    await putStoredFile(temp, key, { consume: true });
     opts.onProgress?.(98);
     return {
       storageKey: key,

@@ -1,7 +1,7 @@
 // Answers a GET or HEAD for a stored media file per RFC 9110: 200 with the whole file, 206 with one
 // byte range, 416 with "bytes */LENGTH". Private evidence: never stored by shared caches, never
 // sniffed into another type.
-import { statKey } from "@/lib/storage/local-store";
+import { statKey } from "@/lib/storage/store";
 import { parseRange } from "@/lib/http/parse-range";
 import { buildRangeResponseHeaders } from "@/lib/http/build-range-response-headers";
 import { buildContentDisposition, type DispositionType } from "@/lib/http/build-content-disposition";

@@ -2,10 +2,10 @@
 // every seek: cancelling the stream, or the request's abort signal, closes the file quietly. That is
 // routine, not an error, so nothing is logged for it.
 import "server-only";
-import type { ReadStream } from "node:fs";
-import { readKey } from "@/lib/storage/local-store";
+import type { Readable } from "node:stream";
+import { readKey } from "@/lib/storage/store";
 
-export function streamStoredFile(key: string, range: { start: number; end: number } | undefined, signal?: AbortSignal): { stream: ReadableStream<Uint8Array>; file: ReadStream } {
+export function streamStoredFile(key: string, range: { start: number; end: number } | undefined, signal?: AbortSignal): { stream: ReadableStream<Uint8Array>; file: Readable } {
   const file = readKey(key, range);
   let done = false;
   const finish = () => {

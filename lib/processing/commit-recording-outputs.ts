@@ -7,8 +7,8 @@ import { createHash } from "node:crypto";
 import { and, eq, notInArray, sql } from "drizzle-orm";
 import { db } from "@/db/client";
 import { recordings, renditions, signalTraces } from "@/db/schema";
-import { replaceDerivedFolder } from "@/lib/storage/local-store";
-import { derivedKey } from "@/lib/storage/storage-keys";
+import { replaceStoredFolder } from "@/lib/storage/store";
+import { derivedFolderKey, derivedKey } from "@/lib/storage/storage-keys";
 import { recordCustodyEvent } from "@/lib/custody/record-custody-event";
 import { canonicalSerialize } from "@/lib/custody/canonical-serialize";
 import type { DeriveResult } from "./derive-recording-outputs";
@@ -45,7 +45,7 @@ export async function commitRecordingOutputs(rec: CommitRecording, result: Deriv
     if (!locked || locked.state === "ready") return false;
     // Should the commit below fail, the files in place are newer than the rows until the retry
     // commits; the retry writes the same files again (the outputs are deterministic).
-    await replaceDerivedFolder(rec.organisationId, rec.id, workDir);
+    await replaceStoredFolder(derivedFolderKey(rec.organisationId, rec.id), workDir);
     const now = new Date();
 
     const kinds = result.outputs.map((o) => o.kind);

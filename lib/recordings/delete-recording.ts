@@ -9,8 +9,8 @@ import { jobs, recordings, renditions, stills } from "@/db/schema";
 import { ApiError, notFound } from "@/lib/api/errors";
 import type { Member } from "@/lib/auth/load-member";
 import { can } from "@/lib/auth/permissions";
-import { removeKey, storePath } from "@/lib/storage/local-store";
-import { derivedFolderKey } from "@/lib/storage/storage-keys";
+import { removeKey } from "@/lib/storage/store";
+import { assertStoreKey, derivedFolderKey } from "@/lib/storage/storage-keys";
 import { recordCustodyEvent, type RequestFacts } from "../custody/record-custody-event";
 
 type Facts = RequestFacts;
@@ -108,7 +108,7 @@ export async function deleteRecording(member: Member, recordingId: string, input
   // files go after the commit: a failed transaction never leaves evidence half-deleted
   const removed: string[] = [];
   for (const key of outcome.keys) {
-    storePath(key); // refuses a key outside the store before anything is touched
+    assertStoreKey(key); // refuses a key outside the store before anything is touched
     await removeKey(key);
     removed.push(key);
   }

@@ -15,7 +15,7 @@ import { ApiError, notFound } from "@/lib/api/errors";
 import type { Member } from "@/lib/auth/load-member";
 import { recordCustodyEvent, requestFacts } from "@/lib/custody/record-custody-event";
 import { buildContentDisposition } from "@/lib/http/build-content-disposition";
-import { readKey, statKey } from "@/lib/storage/local-store";
+import { readKey, statKey } from "@/lib/storage/store";
 import type { RecordingKind } from "../uploads/sniff-content";
 
 const MEDIA_TYPES: Record<RecordingKind, string> = {

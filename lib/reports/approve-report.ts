@@ -2,7 +2,6 @@
 // database refuses any change to its row (migration 0002), and the custody log carries its PDF's SHA-256. The stored file is hashed again first: approval vouches for
 // the bytes a client will download, not for what the database remembers of them.
 import "server-only";
-import { createReadStream } from "node:fs";
 import { and, eq } from "drizzle-orm";
 import { db } from "@/db/client";
 import { reports } from "@/db/schema";
@@ -10,7 +9,7 @@ import type { Role } from "@/db/schema/types";
 import { ApiError, notFound } from "@/lib/api/errors";
 import { recordCustodyEvent } from "@/lib/custody/record-custody-event";
 import { sha256OfStream } from "@/lib/custody/sha256-stream";
-import { storePath } from "@/lib/storage/local-store";
+import { readKey } from "@/lib/storage/store";
 import { loadReportView, type ReportView } from "./report-view";
 
 export async function approveReport(
@@ -29,7 +28,7 @@ export async function approveReport(
     if (r.state !== "ready" || !r.storageKey || !r.sha256) throw new ApiError("conflict", `Version ${r.version} is not built (it is ${r.state}); only a built version can be approved`);
     let digest: string;
     try {
-      digest = (await sha256OfStream(createReadStream(storePath(r.storageKey)))).hex;
+      digest = (await sha256OfStream(readKey(r.storageKey))).hex;
     } catch {
       throw new ApiError("conflict", "The report's PDF is missing from the store; build a new version");
     }

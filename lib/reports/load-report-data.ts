@@ -17,7 +17,6 @@ import { readRecordingFigures } from "@/lib/recordings/recording-figures";
 import { describeRecordingDuration, describeRecordingSignal } from "./describe-recording-signal";
 import { describeMoment } from "@/lib/findings/describe-moment";
 import { SEVERITIES_WORST_FIRST, SEVERITY_SCALE } from "@/lib/findings/severity-scale";
-import { storePath } from "@/lib/storage/local-store";
 import { PRESERVATION_STATEMENT } from "./preservation-statement";
 import type { ReportData, ReportFinding } from "./report-data";
 
@@ -138,7 +137,7 @@ export async function loadReportData(organisationId: string, reportId: string): 
           position: coords(f.latitude, f.longitude),
           distances: dist.length ? `${dist.join(", ")} from the launch point` : null,
           box: f.box,
-          still: still ? { path: "", sha256: still.sha256, width: still.width, height: still.height } : null,
+          still: still ? { storageKey: "", sha256: still.sha256, width: still.width, height: still.height } : null,
           stillMissing: still ? null : f.still?.state === "failed" ? "The still could not be extracted." : "The still was not ready when this report was built.",
           markedBy: f.createdBy?.name ?? null,
           version: f.version,
@@ -151,7 +150,7 @@ export async function loadReportData(organisationId: string, reportId: string): 
         : [];
       views.forEach((v, i) => {
         const row = stillRows.find((r) => r.id === v.still?.id);
-        if (findings[i].still && row?.storageKey) findings[i].still!.path = storePath(row.storageKey);
+        if (findings[i].still && row?.storageKey) findings[i].still!.storageKey = row.storageKey;
         else if (findings[i].still) {
           findings[i].still = null;
           findings[i].stillMissing = "The still's file is missing from the store.";

@@ -21,7 +21,7 @@ export type ReportFinding = {
   position: string | null;
   distances: string | null;
   box: FrameBox | null;
-  still: { path: string; sha256: string | null; width: number | null; height: number | null } | null;
+  still: { storageKey: string; sha256: string | null; width: number | null; height: number | null } | null;
   stillMissing: string | null;
   markedBy: string | null;
   version: number;

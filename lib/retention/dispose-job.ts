@@ -11,8 +11,8 @@ import { clients, evidencePackages, jobs, organisations, recordings, renditions,
 import { ApiError, notFound } from "@/lib/api/errors";
 import type { Member } from "@/lib/auth/load-member";
 import { recordCustodyEvent, type RequestFacts } from "@/lib/custody/record-custody-event";
-import { removeKey, storePath } from "@/lib/storage/local-store";
-import { derivedFolderKey } from "@/lib/storage/storage-keys";
+import { removeKey } from "@/lib/storage/store";
+import { assertStoreKey, derivedFolderKey } from "@/lib/storage/storage-keys";
 import { FINAL_PACKAGE_PURPOSE } from "./list-disposals";
 import { daysUntil, disposalDate, effectiveRetention } from "./retention-period";
 
@@ -173,7 +173,7 @@ export async function disposeJob(member: Confirmer, jobId: string, input: { conf
 
   // files go after the commit: a failed transaction never leaves evidence half-destroyed
   for (const key of outcome.keys) {
-    storePath(key); // refuses a key outside the store before anything is touched
+    assertStoreKey(key); // refuses a key outside the store before anything is touched
     await removeKey(key);
   }
   return { jobId, disposedAt: now.toISOString(), recordings: outcome.recordings, files: outcome.files, keptFinalPackages: outcome.keptFinalPackages };

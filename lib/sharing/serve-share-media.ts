@@ -9,7 +9,7 @@ import { parseRange } from "@/lib/http/parse-range";
 import { buildRangeResponseHeaders } from "@/lib/http/build-range-response-headers";
 import { contentLengthHeaders } from "@/lib/http/content-length-carrier";
 import { buildContentDisposition } from "@/lib/http/build-content-disposition";
-import { readKey, statKey } from "@/lib/storage/local-store";
+import { readKey, readStoredBytes, statKey } from "@/lib/storage/store";
 import { requestFacts } from "@/lib/custody/record-custody-event";
 import { countsAsDownload } from "@/lib/custody/counts-as-download";
 import { DOWNLOAD_KINDS, verifyMediaGrant } from "./media-grant";
@@ -26,9 +26,7 @@ function refuse(status: 404 | 410 | 416, message: string, extra: Record<string, 
 }
 
 async function readAll(key: string): Promise<string> {
-  const chunks: Buffer[] = [];
-  for await (const chunk of readKey(key)) chunks.push(chunk as Buffer);
-  return Buffer.concat(chunks).toString("utf8");
+  return (await readStoredBytes(key)).toString("utf8");
 }
 
 export async function serveShareMedia(req: Request, grantValue: string): Promise<Response> {

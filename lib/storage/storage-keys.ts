@@ -9,6 +9,13 @@
 //   tracks/<org>/<track id>                                                   write-once flight tracks (lib/tracks)
 //   packages/<org>/<package id>.zip                                            evidence packages (lib/evidence-packages)
 
+/** Refuses anything that is not a key of the store (an absolute path, "..", an empty part) before it is used. */
+export function assertStoreKey(key: string): void {
+  if (!key || key.startsWith("/") || key.includes("\\") || key.split("/").some((part) => part === "" || part === "." || part === "..")) {
+    throw new Error("key outside the store");
+  }
+}
+
 /** The folder of the originals, for the purge that lists it. */
 export const ORIGINALS_FOLDER = "originals";
 

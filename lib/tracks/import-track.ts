@@ -13,7 +13,7 @@ import { ApiError } from "@/lib/api/errors";
 import type { Member } from "@/lib/auth/load-member";
 import { recordCustodyEvent, type RequestFacts } from "@/lib/custody/record-custody-event";
 import { getRangeCheckFlightOrThrow } from "@/lib/range-checks/flight-for-range-check";
-import { placeOriginal, removeKey } from "@/lib/storage/local-store";
+import { placeOriginal, removeKey } from "@/lib/storage/store";
 import { trackKey } from "@/lib/storage/storage-keys";
 import { describeTrackProblem } from "./describe-track-problem";
 import { loadTrackRow } from "./load-flight-track";

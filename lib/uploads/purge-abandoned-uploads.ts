@@ -15,8 +15,7 @@ import path from "node:path";
 import { inArray, or } from "drizzle-orm";
 import { db } from "@/db/client";
 import { recordings } from "@/db/schema";
-import { env } from "@/lib/config/env";
-import { removeKey } from "@/lib/storage/local-store";
+import { listStored, removeKey } from "@/lib/storage/store";
 import { ORIGINALS_FOLDER } from "@/lib/storage/storage-keys";
 import { recordingIdForUpload } from "./recording-id-for-upload";
 import { settleUpload } from "./settle-upload";
@@ -119,16 +118,11 @@ export async function purgeAbandonedUploads(opts: PurgeOptions = {}): Promise<Pu
 }
 
 async function removeOrphanOriginals(now: number, graceMs: number, pending: Set<string>): Promise<number> {
-  const root = path.join(env().storageDir, ORIGINALS_FOLDER);
   const candidates: { key: string; recordingId: string }[] = [];
-  for (const org of await readdir(root).catch(() => [] as string[])) {
-    for (const shard of await readdir(path.join(root, org)).catch(() => [] as string[])) {
-      for (const file of await readdir(path.join(root, org, shard)).catch(() => [] as string[])) {
-        const m = await mtimeOf(path.join(root, org, shard, file));
-        if (m === null || now - m < graceMs || pending.has(file)) continue;
-        candidates.push({ key: `${ORIGINALS_FOLDER}/${org}/${shard}/${file}`, recordingId: file });
-      }
-    }
+  for await (const o of listStored(ORIGINALS_FOLDER)) {
+    const recordingId = o.key.split("/").pop()!;
+    if (now - o.modifiedAt.getTime() < graceMs || pending.has(recordingId)) continue;
+    candidates.push({ key: o.key, recordingId });
   }
   let removed = 0;
   const UUID = /^[0-9a-f-]{36}$/;

@@ -14,7 +14,6 @@
 // Step 2 is the single point where the upload counts as done; recordings.upload_id is unique.
 import "server-only";
 import { createReadStream } from "node:fs";
-import { chmod, rename } from "node:fs/promises";
 import { and, asc, eq, isNotNull, isNull, sql } from "drizzle-orm";
 import { db } from "@/db/client";
 import { custodyEvents, flights, memberships, recordings } from "@/db/schema";
@@ -22,7 +21,7 @@ import type { Role } from "@/db/schema/types";
 import { sha256OfStream } from "@/lib/custody/sha256-stream";
 import { recordCustodyEvent, requestFacts } from "@/lib/custody/record-custody-event";
 import { enqueue } from "@/lib/queue/jobs";
-import { placeOriginal, removeKey, statKey, storePath } from "@/lib/storage/local-store";
+import { placeOriginal, readKey, readStoredBytes, removeKey, statKey, takeBackOriginal } from "@/lib/storage/store";
 import { originalKey } from "@/lib/storage/storage-keys";
 import { insertRecordingRow } from "../recordings/insert-recording-row";
 import { readFileHead } from "./read-file-head";
@@ -98,7 +97,7 @@ async function settleLocked(store: StagingStore, uploadId: string, meta: StoredU
   } else {
     throw new UploadRefusal("gone", `The data of “${meta.filename}” is no longer on the server; add the file again to upload it`);
   }
-  const file = source === "staged" ? store.dataPath(uploadId) : storePath(key);
+  const file = store.dataPath(uploadId); // the staged bytes (source "staged" only)
 
   const refuse = async (reason: string): Promise<UploadOutcome> => {
     if (source === "staged") await store.removeData(uploadId);
@@ -107,7 +106,8 @@ async function settleLocked(store: StagingStore, uploadId: string, meta: StoredU
     return { ...common, state: "refused", reason };
   };
 
-  const sniff = sniffContent(await readFileHead(file, SNIFF_BYTES), size <= SNIFF_BYTES);
+  const head = source === "staged" ? await readFileHead(file, SNIFF_BYTES) : await readStoredBytesHead(key, size);
+  const sniff = sniffContent(head, size <= SNIFF_BYTES);
   if (!sniff.ok) return refuse(refusalMessage(meta.filename, sniff.reason));
 
   const [flight] = await db()
@@ -118,7 +118,7 @@ async function settleLocked(store: StagingStore, uploadId: string, meta: StoredU
     return refuse(`“${meta.filename}” was not stored: its flight was removed or moved to another job while it uploaded. Add the file again and choose a flight`);
   }
 
-  const sha256 = (source === "staged" ? store.takeHash(uploadId, size) : null) ?? (await hashFile(file, size));
+  const sha256 = (source === "staged" ? store.takeHash(uploadId, size) : null) ?? (await hashBytes(source === "staged" ? createReadStream(file) : readKey(key), size, uploadId));
   const actor = { userId: meta.userId, role: ctx.role ?? (await roleOf(meta.userId, org)) };
   const facts = ctx.req ? requestFacts(ctx.req) : { clientAddress: null, userAgent: null };
   const rowValues = {
@@ -196,10 +196,15 @@ async function settleLocked(store: StagingStore, uploadId: string, meta: StoredU
   return (await outcomeOfRow(org, uploadId))!;
 }
 
-async function hashFile(file: string, size: number): Promise<string> {
-  const digest = await sha256OfStream(createReadStream(file));
-  if (digest.bytes !== size) throw new Error(`hashed ${digest.bytes} bytes of ${file}, expected ${size}`);
+async function hashBytes(stream: AsyncIterable<unknown>, size: number, uploadId: string): Promise<string> {
+  const digest = await sha256OfStream(stream);
+  if (digest.bytes !== size) throw new Error(`hashed ${digest.bytes} bytes of upload ${uploadId}, expected ${size}`);
   return digest.hex;
+}
+
+/** The first bytes of an original already placed in the store, for the content check. */
+function readStoredBytesHead(key: string, size: number): Promise<Buffer> {
+  return size === 0 ? Promise.resolve(Buffer.alloc(0)) : readStoredBytes(key, { start: 0, end: Math.min(size, SNIFF_BYTES) - 1 });
 }
 
 async function roleOf(userId: string, organisationId: string): Promise<Role | null> {
@@ -242,9 +247,7 @@ async function unfiledDuplicateOf(organisationId: string, uploadId: string): Pro
 }
 
 async function returnToStaging(key: string, stagedPath: string): Promise<void> {
-  const placedPath = storePath(key);
-  await chmod(placedPath, 0o644);
-  await rename(placedPath, stagedPath);
+  await takeBackOriginal(key, stagedPath);
 }
 
 async function enqueueProcessing(recordingId: string): Promise<void> {

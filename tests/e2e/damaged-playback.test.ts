@@ -21,7 +21,7 @@ import { makeCounterH264, makeProcessedRecording, type ProcessedRecording } from
 import { makeDamagedH264 } from "@/tests/support/media/make-damaged-h264";
 import { describeMoment } from "@/lib/findings/describe-moment";
 import { describeLostFrames, readRecordingFigures } from "@/lib/recordings/recording-figures";
-import { storePath } from "@/lib/storage/local-store";
+import { diskPath } from "@/tests/support/stored-files";
 import { MIN_MARK_WIDTH_PX } from "@/components/trace/layout-trace-band";
 import { readFile } from "node:fs/promises";
 import { readPdfText } from "@/tests/support/read-pdf-text";
@@ -220,7 +220,7 @@ describe("a damaged recording in the review room", () => {
     markedFrame = n;
     const [still] = await db().select().from(s.stills).where(eq(s.stills.findingId, finding.id));
     expect(still.state).toBe("ready");
-    const mine = await decodeGray(["-i", storePath(still.storageKey!)]);
+    const mine = await decodeGray(["-i", diskPath(still.storageKey!)]);
     const same = meanAbsDiff(mine, await cleanFrame(n));
     // the neighbours, and the frame a player that dropped the 13 lost slots would show there
     const neighbours = [meanAbsDiff(mine, await cleanFrame(n - 1)), meanAbsDiff(mine, await cleanFrame(n + 1)), meanAbsDiff(mine, await cleanFrame(n + 13))];

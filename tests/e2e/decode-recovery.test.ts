@@ -18,7 +18,7 @@ import { makeFlight, makeJob } from "@/tests/support/factories";
 import { makeCounterH264, makeProcessedRecording, type ProcessedRecording } from "@/tests/support/media/make-processed-recording";
 import { makeDamagedH264 } from "@/tests/support/media/make-damaged-h264";
 import { runTool } from "@/tests/support/media/make-h264";
-import { storePath } from "@/lib/storage/local-store";
+import { diskPath } from "@/tests/support/stored-files";
 import { derivedKey } from "@/lib/storage/storage-keys";
 import * as shareLinks from "@/app/api/share-links/route";
 import { req } from "@/tests/support/session";
@@ -53,9 +53,9 @@ beforeAll(async () => {
 
   // the broken rendition: the damaged stream's slices copied as they are into an MP4
   const key = derivedKey(orgId, rec.recording.id, "copied.mp4");
-  await mkdir(path.dirname(storePath(key)), { recursive: true });
-  await runTool("ffmpeg", ["-v", "error", "-y", "-f", "h264", "-r", String(FPS), "-i", damaged, "-c", "copy", "-movflags", "+faststart", storePath(key)]);
-  const bytes = await readFile(storePath(key));
+  await mkdir(path.dirname(diskPath(key)), { recursive: true });
+  await runTool("ffmpeg", ["-v", "error", "-y", "-f", "h264", "-r", String(FPS), "-i", damaged, "-c", "copy", "-movflags", "+faststart", diskPath(key)]);
+  const bytes = await readFile(diskPath(key));
   await db()
     .update(s.renditions)
     .set({ storageKey: key, sizeBytes: bytes.length, sha256: createHash("sha256").update(bytes).digest("hex") })

@@ -12,7 +12,7 @@ import { eq } from "drizzle-orm";
 import type { Browser, BrowserContext, Page } from "playwright-core";
 import { closeDb, db } from "@/db/client";
 import * as s from "@/db/schema";
-import { storePath } from "@/lib/storage/local-store";
+import { diskPath } from "@/tests/support/stored-files";
 import { generateShareToken, hashShareToken } from "@/lib/sharing/share-token";
 import { BASE, launch, newContext, signInWithPassword } from "@/tests/support/browser";
 import { demoOrganisationId } from "@/tests/support/session";
@@ -132,7 +132,7 @@ describe("the disposal page", () => {
     expect(await confirm.isDisabled()).toBe(false);
     await confirm.click();
     await expect.poll(() => item.count(), { timeout: 15_000 }).toBe(0);
-    expect(await stat(storePath(due.recA.originalKey)).then(() => true, () => false)).toBe(false);
+    expect(await stat(diskPath(due.recA.originalKey)).then(() => true, () => false)).toBe(false);
     expect(errors).toEqual([]);
   });
 });

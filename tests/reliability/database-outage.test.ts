@@ -10,7 +10,7 @@ import { db, closeDb } from "@/db/client";
 import { recordings } from "@/db/schema";
 import { closeRedis } from "@/lib/queue/redis";
 import { closeQueues } from "@/lib/queue/jobs";
-import { storePath } from "@/lib/storage/local-store";
+import { diskPath } from "@/tests/support/stored-files";
 import * as jobsRoute from "@/app/api/jobs/route";
 import { demoActors, req, type Actor } from "@/tests/support/session";
 import { makeFlight } from "@/tests/support/factories";
@@ -141,7 +141,7 @@ describe("PostgreSQL crashes during uploads", () => {
       expect(row, `upload ${i} has its recording row`).toBeDefined();
       expect(row.sha256).toBe(digests[i]);
       expect(row.sizeBytes).toBe(sizes[i]);
-      expect(await sha256sum(storePath(row.storageKey!))).toBe(digests[i]);
+      expect(await sha256sum(diskPath(row.storageKey!))).toBe(digests[i]);
       byteExact++;
     }
     console.log(

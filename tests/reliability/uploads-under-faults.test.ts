@@ -10,7 +10,7 @@ import { db, closeDb } from "@/db/client";
 import { recordings } from "@/db/schema";
 import { closeRedis } from "@/lib/queue/redis";
 import { closeQueues } from "@/lib/queue/jobs";
-import { storePath } from "@/lib/storage/local-store";
+import { diskPath } from "@/tests/support/stored-files";
 import { demoActors } from "@/tests/support/session";
 import { makeFlight } from "@/tests/support/factories";
 import { makePaddedRawH264, sha256sum } from "@/tests/support/media/make-upload-fixtures";
@@ -105,7 +105,7 @@ describe("uploads through cut connections and a killed server", () => {
       expect(row.sizeBytes).toBe(sizes[i]);
       expect(row.sha256).toBe(digests[i]);
       // GNU sha256sum over the stored file: a hasher that shares no code with ours
-      expect(await sha256sum(storePath(row.storageKey!))).toBe(digests[i]);
+      expect(await sha256sum(diskPath(row.storageKey!))).toBe(digests[i]);
       byteExact++;
     }
     console.log(

@@ -10,7 +10,7 @@ import { createReadStream } from "node:fs";
 import os from "node:os";
 import path from "node:path";
 import type { NewRecording, Role } from "@/db/schema/types";
-import { placeOriginal } from "@/lib/storage/local-store";
+import { placeOriginal } from "@/lib/storage/store";
 import { originalKey } from "@/lib/storage/storage-keys";
 import { sha256OfStream } from "@/lib/custody/sha256-stream";
 

@@ -5,6 +5,31 @@ import IORedis from "ioredis";
 import { rm, mkdir } from "node:fs/promises";
 import { TEST_ENV } from "./test-env";
 
+/** The bucket store's tests start from an empty test bucket, as the disk store's start from an empty folder. */
+async function emptyTestBucket() {
+  const { S3Client, ListObjectsV2Command, DeleteObjectsCommand } = await import("@aws-sdk/client-s3");
+  const client = new S3Client({
+    endpoint: TEST_ENV.S3_ENDPOINT,
+    region: "us-east-1",
+    forcePathStyle: true,
+    credentials: { accessKeyId: TEST_ENV.S3_ACCESS_KEY_ID, secretAccessKey: TEST_ENV.S3_SECRET_ACCESS_KEY },
+    requestChecksumCalculation: "WHEN_REQUIRED",
+  });
+  try {
+    for (;;) {
+      const page = await client.send(new ListObjectsV2Command({ Bucket: TEST_ENV.S3_BUCKET })).catch((err) => {
+        if ((err as Error).name === "NoSuchBucket") return null;
+        throw err;
+      });
+      const keys = (page?.Contents ?? []).map((o) => ({ Key: o.Key! }));
+      if (!keys.length) break;
+      await client.send(new DeleteObjectsCommand({ Bucket: TEST_ENV.S3_BUCKET, Delete: { Objects: keys, Quiet: true } }));
+    }
+  } finally {
+    client.destroy();
+  }
+}
+
 export default async function setup() {
   Object.assign(process.env, TEST_ENV);
   // the test database is created on first use (a parallel test slot has its own)
@@ -27,5 +52,7 @@ export default async function setup() {
   await redis.quit();
   await rm(TEST_ENV.STORAGE_DIR, { recursive: true, force: true });
   await rm(TEST_ENV.UPLOAD_DIR, { recursive: true, force: true });
+  await rm(TEST_ENV.SCRATCH_DIR, { recursive: true, force: true });
   await mkdir(TEST_ENV.STORAGE_DIR, { recursive: true });
+  if (process.env.STORAGE_BACKEND === "s3") await emptyTestBucket();
 }

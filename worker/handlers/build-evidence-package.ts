@@ -9,7 +9,7 @@ import { UnrecoverableError } from "bullmq";
 import { db } from "@/db/client";
 import { evidencePackages } from "@/db/schema";
 import { ApiError } from "@/lib/api/errors";
-import { statKey } from "@/lib/storage/local-store";
+import { statKey } from "@/lib/storage/store";
 import { commitBuiltPackage } from "@/lib/evidence-packages/commit-built-package";
 import { writeEvidencePackage, PackageVerifyError } from "@/lib/evidence-packages/write-evidence-package";
 import { PayloadMismatchError } from "@/lib/evidence-packages/write-bag-zip";

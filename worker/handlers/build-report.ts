@@ -1,19 +1,18 @@
 // Job "build-report": renders one report version to PDF (@react-pdf/renderer), stores it, records its
 // SHA-256, and logs the build in the custody chain (the commit: lib/reports/commit-built-report.ts). Reloads its row; an approved version is never
 // rebuilt, a built one is left alone; failures mark the version failed and rethrow for a retry.
-import { mkdtemp, rm, writeFile } from "node:fs/promises";
+import { rm, writeFile } from "node:fs/promises";
 import { createHash } from "node:crypto";
-import os from "node:os";
 import path from "node:path";
 import { and, eq, inArray } from "drizzle-orm";
 import { db } from "@/db/client";
 import { reports } from "@/db/schema";
 import { commitBuiltReport } from "@/lib/reports/commit-built-report";
-import { placeStoredFile } from "@/lib/media-serving/place-stored-file";
 import { reportKey } from "@/lib/storage/storage-keys";
 import { loadReportData } from "@/lib/reports/load-report-data";
 import { renderReportPdf } from "@/lib/reports/render-report-pdf";
-import { statKey } from "@/lib/storage/local-store";
+import { putStoredFile, statKey } from "@/lib/storage/store";
+import { scratchFolder } from "@/lib/storage/scratch";
 import type { JobPayloads } from "@/lib/queue/jobs";
 import type { JobContext } from "./job-context";
 
@@ -32,7 +31,7 @@ export async function buildReport(data: JobPayloads["build-report"], ctx: JobCon
       .where(and(eq(reports.id, report.id), eq(reports.state, "building")));
     await ctx.progress?.(p);
   };
-  const work = await mkdtemp(path.join(os.tmpdir(), "cairn-report-"));
+  const work = await scratchFolder("report");
   try {
     await db()
       .update(reports)
@@ -47,7 +46,7 @@ export async function buildReport(data: JobPayloads["build-report"], ctx: JobCon
     const file = path.join(work, "report.pdf");
     await writeFile(file, pdf);
     const key = reportKey(report.organisationId, report.jobId, report.id);
-    await placeStoredFile(file, key);
+    await putStoredFile(file, key, { consume: true });
 
     await commitBuiltReport({ report, storageKey: key, sizeBytes: pdf.length, sha256, findings: content.findings.length, recordings: content.recordings.length });
     await ctx.progress?.(100);

@@ -2,8 +2,7 @@
 // rendition (the video the reviewer marked it on; same frames, same timing), stored under its own key,
 // hashed, and recorded in the custody log (the commit: lib/findings/commit-still.ts). Reloads its row;
 // returns quietly when the row is gone or the still is already made; rethrows failures so BullMQ retries.
-import { mkdtemp, rm } from "node:fs/promises";
-import os from "node:os";
+import { rm } from "node:fs/promises";
 import path from "node:path";
 import { createReadStream } from "node:fs";
 import { and, eq, ne } from "drizzle-orm";
@@ -11,9 +10,9 @@ import { db } from "@/db/client";
 import { renditions, stills } from "@/db/schema";
 import { loadReviewRecording } from "@/lib/recordings/load-review-recording";
 import { extractFrame } from "@/lib/findings/extract-frame";
-import { placeStoredFile } from "@/lib/media-serving/place-stored-file";
 import { stillKey } from "@/lib/storage/storage-keys";
-import { statKey, storePath } from "@/lib/storage/local-store";
+import { putStoredFile, statKey, withLocalCopy } from "@/lib/storage/store";
+import { scratchFolder } from "@/lib/storage/scratch";
 import { sha256OfStream } from "@/lib/custody/sha256-stream";
 import { commitStill } from "@/lib/findings/commit-still";
 import type { JobPayloads } from "@/lib/queue/jobs";
@@ -26,7 +25,7 @@ export async function extractStill(data: JobPayloads["extract-still"], ctx: JobC
   if (!still) return "gone";
   if (still.state === "ready" && still.storageKey && (await statKey(still.storageKey))) return "already-made";
 
-  const work = await mkdtemp(path.join(os.tmpdir(), "cairn-still-"));
+  const work = await scratchFolder("still");
   try {
     const rec = await loadReviewRecording(still.organisationId, still.recordingId).catch(() => null);
     if (!rec) {
@@ -42,11 +41,14 @@ export async function extractStill(data: JobPayloads["extract-still"], ctx: JobC
     await ctx.progress?.(10);
 
     const out = path.join(work, "still.jpg");
-    const frame = await extractFrame({ input: storePath(playable.storageKey), inputName: "playable.mp4", frame: still.frameNumber, rate: rec.timing.rate, output: out, signal: ctx.signal });
+    const rate = rec.timing.rate;
+    const frame = await withLocalCopy(playable.storageKey, (input) =>
+      extractFrame({ input, inputName: "playable.mp4", frame: still.frameNumber, rate, output: out, signal: ctx.signal }),
+    );
     await ctx.progress?.(70);
     const digest = await sha256OfStream(createReadStream(out));
     const key = stillKey(still.organisationId, still.recordingId, still.id);
-    await placeStoredFile(out, key);
+    await putStoredFile(out, key);
 
     const made = await commitStill({ still, recording: rec, storageKey: key, frame, sha256: digest.hex });
     await ctx.progress?.(100);

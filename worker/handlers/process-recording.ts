@@ -1,15 +1,16 @@
 // Job "process-recording": derive the playable MP4, poster, thumbnail sprite + WebVTT track, facts and
 // signal trace of one recording, and commit them in one transaction (lib/processing/commit-recording-outputs.ts). Idempotent: outputs are built in
-// a temp folder, moved into the recording's derived folder as a whole, and the rows are upserted per
-// (recording, kind), so a second run leaves one identical set. The original is only read.
-import { readdir, rm, mkdir, stat } from "node:fs/promises";
-import path from "node:path";
+// a folder of this worker's own scratch space (lib/storage/scratch.ts), put into the recording's derived
+// folder as a whole, and the rows are upserted per (recording, kind), so a second run leaves one
+// identical set. The original is only read, from a local copy the store hands out (the file itself on disk).
+import { rm } from "node:fs/promises";
 import { UnrecoverableError } from "bullmq";
 import { eq } from "drizzle-orm";
 import { db } from "@/db/client";
 import { organisations, recordings } from "@/db/schema";
 import type { JobPayloads } from "@/lib/queue/jobs";
-import { storePath } from "@/lib/storage/local-store";
+import { statKey, withLocalCopy } from "@/lib/storage/store";
+import { scratchFolder } from "@/lib/storage/scratch";
 import { commitRecordingOutputs } from "@/lib/processing/commit-recording-outputs";
 import { deriveRecordingOutputs } from "@/lib/processing/derive-recording-outputs";
 import { RecordingRefused } from "@/lib/recordings/recording-refused";
@@ -30,33 +31,28 @@ export async function processRecording(data: Payload, ctx: JobContext = {}): Pro
   // Redis lost the first one while it ran). Reprocessing sets the state back to "waiting" first.
   if (rec.state === "ready") return;
 
-  const workRoot = storePath("tmp");
-  const workDir = path.join(workRoot, `process-${recordingId}-${process.pid}-${Date.now()}`);
+  const workDir = await scratchFolder(`process-${recordingId}`);
   try {
     const originalKey = rec.storageKey ?? (rec.duplicateOfId ? await storageKeyOf(rec.duplicateOfId) : null);
     if (!originalKey) throw new RecordingRefused("The original is not in the store (the upload never finished)");
-    const originalPath = storePath(originalKey);
-    if (!(await stat(originalPath).then((s) => s.isFile(), () => false))) {
-      throw new RecordingRefused("The original file is missing from the store");
-    }
+    if (!(await statKey(originalKey))) throw new RecordingRefused("The original file is missing from the store");
 
     await db()
       .update(recordings)
       .set({ state: "processing", progress: 0, failureReason: null, updatedAt: new Date() })
       .where(eq(recordings.id, recordingId));
-    await removeStaleWorkFolders(workRoot, recordingId);
-    await mkdir(workDir, { recursive: true });
-
     const progress = recordingProgressReporter({ updateProgress: async (p: number) => ctx.progress?.(p) }, recordingId);
-    const result = await deriveRecordingOutputs({
-      declaredKind: rec.kind,
-      originalPath,
-      fpsOverride: rec.fpsOverride,
-      organisationDefaultFps: rec.defaultControllerFps,
-      workDir,
-      signal,
-      onProgress: (p) => progress.report(p),
-    });
+    const result = await withLocalCopy(originalKey, (originalPath) =>
+      deriveRecordingOutputs({
+        declaredKind: rec.kind,
+        originalPath,
+        fpsOverride: rec.fpsOverride,
+        organisationDefaultFps: rec.defaultControllerFps,
+        workDir,
+        signal,
+        onProgress: (p) => progress.report(p),
+      }),
+    );
     await progress.flush();
     if (signal.aborted) throw signal.reason instanceof Error ? signal.reason : new Error("cancelled");
 
@@ -102,10 +98,3 @@ async function storageKeyOf(recordingId: string): Promise<string | null> {
   return row?.storageKey ?? null;
 }
 
-/** Work folders left by a worker that died mid-job (SIGKILL, power loss) for this recording. */
-async function removeStaleWorkFolders(workRoot: string, recordingId: string): Promise<void> {
-  const names = await readdir(workRoot).catch(() => [] as string[]);
-  await Promise.all(
-    names.filter((n) => n.startsWith(`process-${recordingId}-`)).map((n) => rm(path.join(workRoot, n), { recursive: true, force: true })),
-  );
-}

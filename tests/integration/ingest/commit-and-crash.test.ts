@@ -3,7 +3,7 @@
 // with SIGKILL mid-upload; tus-js-client then resumes against the restarted one.
 import { spawn, type ChildProcess } from "node:child_process";
 import { createReadStream } from "node:fs";
-import { readFile, stat } from "node:fs/promises";
+import { readFile } from "node:fs/promises";
 import path from "node:path";
 import { Readable } from "node:stream";
 import { afterAll, afterEach, beforeAll, describe, expect, it } from "vitest";
@@ -15,7 +15,8 @@ import { custodyEvents, recordings } from "@/db/schema";
 import { closeRedis } from "@/lib/queue/redis";
 import { closeQueues, queue } from "@/lib/queue/jobs";
 import { verifyChain } from "@/lib/custody/verify-chain";
-import { placeOriginal, storePath } from "@/lib/storage/local-store";
+import { placeOriginal } from "@/lib/storage/store";
+import { storedBytes, storedExists, storedSha256 } from "@/tests/support/stored-files";
 import { originalKey } from "@/lib/storage/storage-keys";
 import { recordingIdForUpload } from "@/lib/uploads/recording-id-for-upload";
 import { settleUpload } from "@/lib/uploads/settle-upload";
@@ -135,7 +136,7 @@ describe("the upload server killed with SIGKILL mid-upload", () => {
     const uploadId = uploadIdOf(result.url);
     const [row] = await db().select().from(recordings).where(eq(recordings.uploadId, uploadId));
     expect(row.sha256).toBe(reference);
-    expect(await sha256sum(storePath(row.storageKey!))).toBe(reference);
+    expect(await storedSha256(row.storageKey!)).toBe(reference);
     expect(row.sizeBytes).toBe(size);
   }, 180_000);
 });
@@ -162,13 +163,13 @@ describe("a crash at each step of the commit", () => {
 
     await expect(settleUpload(store, id, { beforeCommit: () => Promise.reject(new Error("simulated crash")) })).rejects.toThrow("simulated crash");
     expect(await uploadRows(id)).toHaveLength(0);
-    expect(await stat(storePath(key)).catch(() => null)).toBeNull();
+    expect(await storedExists(key)).toBe(false);
     expect(sha256Hex(await readFile(store.dataPath(id)))).toBe(sha256Hex(data));
 
     const outcome = await settleUpload(store, id);
     expect(outcome).toMatchObject({ state: "stored", sha256: sha256Hex(data) });
     expect(await uploadRows(id)).toHaveLength(1);
-    expect(sha256Hex(await readFile(storePath(key)))).toBe(sha256Hex(data));
+    expect(sha256Hex(await storedBytes(key))).toBe(sha256Hex(data));
   });
 
   it("a crash after the file was placed but before its row: the retry finds it at its key and commits", async () => {

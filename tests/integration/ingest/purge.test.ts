@@ -1,17 +1,17 @@
 // The scheduled purge: abandoned uploads go, finished ones never go by age, stalled commits are
 // completed, and originals without a row are removed only after their grace period.
 import { randomUUID } from "node:crypto";
-import { mkdir, readFile, stat, utimes, writeFile } from "node:fs/promises";
+import { readFile, stat, utimes, writeFile } from "node:fs/promises";
 import path from "node:path";
 import { Readable } from "node:stream";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { eq } from "drizzle-orm";
+import { and, eq } from "drizzle-orm";
 import { Upload } from "@tus/server";
 import { db, closeDb } from "@/db/client";
 import { recordings } from "@/db/schema";
 import { closeRedis } from "@/lib/queue/redis";
 import { closeQueues } from "@/lib/queue/jobs";
-import { storePath } from "@/lib/storage/local-store";
+import { storedBytes, storedExists, writeStoredBytes } from "@/tests/support/stored-files";
 import { originalKey } from "@/lib/storage/storage-keys";
 import { purgeAbandonedUploads } from "@/lib/uploads/purge-abandoned-uploads";
 import { settleUpload } from "@/lib/uploads/settle-upload";
@@ -77,7 +77,7 @@ describe("purgeAbandonedUploads", () => {
     const report = await purgeAbandonedUploads();
     expect(report.tombstonesRemoved).toBeGreaterThanOrEqual(1);
     expect(await infoExists(id)).toBe(false);
-    expect(sha256Hex(await readFile(storePath(row.storageKey!)))).toBe(sha256Hex(h264));
+    expect(sha256Hex(await storedBytes(row.storageKey!))).toBe(sha256Hex(h264));
     expect(await db().$count(recordings, eq(recordings.id, row.id))).toBe(1);
   });
 
@@ -94,20 +94,23 @@ describe("purgeAbandonedUploads", () => {
   it("removes an original without a row after the grace period, keeps fresh ones and those with rows", async () => {
     const orphan = originalKey(orgId, randomUUID());
     const freshOrphan = originalKey(orgId, randomUUID());
-    for (const key of [orphan, freshOrphan]) {
-      await mkdir(path.dirname(storePath(key)), { recursive: true });
-      await writeFile(storePath(key), "bytes nobody filed");
-    }
-    const old = new Date(Date.now() - 2 * DAY);
-    await utimes(storePath(orphan), old, old);
-    const [withRow] = await db().select().from(recordings).where(eq(recordings.organisationId, orgId)).limit(1);
-    await utimes(storePath(withRow.storageKey!), old, old);
+    // ages come from the store's own modification times (an S3 server's LastModified has whole
+    // seconds), so the orphan is written 3 s before the fresh one and the grace period is 2 s
+    await writeStoredBytes(orphan, "bytes nobody filed");
+    await new Promise((r) => setTimeout(r, 3000));
+    await writeStoredBytes(freshOrphan, "bytes nobody filed");
+    // a recording this file stored through an upload (the demo organisation also holds rows other
+    // test files made with keys that name no stored file)
+    const [withRow] = await db()
+      .select()
+      .from(recordings)
+      .where(and(eq(recordings.organisationId, orgId), eq(recordings.originalName, "finished-long-ago.264")));
 
-    const report = await purgeAbandonedUploads();
+    const report = await purgeAbandonedUploads({ orphanGraceMs: 2000 });
     expect(report.orphanOriginalsRemoved).toBe(1);
-    expect(await stat(storePath(orphan)).catch(() => null)).toBeNull();
-    expect(await stat(storePath(freshOrphan)).catch(() => null)).not.toBeNull();
-    expect(await stat(storePath(withRow.storageKey!)).catch(() => null)).not.toBeNull();
+    expect(await storedExists(orphan)).toBe(false);
+    expect(await storedExists(freshOrphan)).toBe(true);
+    expect(await storedExists(withRow.storageKey!)).toBe(true);
   });
 
   it("removes staging data files whose info file is gone, after the expiry", async () => {

@@ -3,7 +3,6 @@
 // (sha256sum), the Content-Disposition with jshttp's content-disposition parser (vendored by next),
 // and Repr-Digest against Node crypto's base64 digest of the bytes received (RFC 9530 section 3).
 import { createHash } from "node:crypto";
-import { chmod, open } from "node:fs/promises";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { and, eq } from "drizzle-orm";
 import contentDisposition from "next/dist/compiled/content-disposition";
@@ -15,7 +14,7 @@ import { db, closeDb } from "@/db/client";
 import { custodyEvents, recordings } from "@/db/schema";
 import { closeRedis } from "@/lib/queue/redis";
 import { closeQueues } from "@/lib/queue/jobs";
-import { storePath } from "@/lib/storage/local-store";
+import { storedBytes, writeStoredBytes } from "@/tests/support/stored-files";
 import { demoActors, req, route, type Actor, type DemoActorKey } from "@/tests/support/session";
 import { makeFlight } from "@/tests/support/factories";
 import { startUploadServer } from "@/tests/support/upload-server";
@@ -184,12 +183,9 @@ describe("original download", () => {
     await server.close();
     const id = t.headers["Cairn-Recording-Id"];
     const [row] = await db().select().from(recordings).where(eq(recordings.id, id));
-    const p = storePath(row.storageKey!);
-    await chmod(p, 0o644);
-    const fh = await open(p, "r+");
-    await fh.write(Buffer.from([0xff]), 0, 1, 200); // one byte, same size
-    await fh.close();
-    await chmod(p, 0o444);
+    const bytes = await storedBytes(row.storageKey!);
+    bytes[200] = 0xff; // one byte, same size
+    await writeStoredBytes(row.storageKey!, bytes);
     const res = await download(actors.pilot, id);
     expect(res.status).toBe(200); // headers go out before the last byte is read...
     await expect(res.arrayBuffer()).rejects.toThrow(); // ...but the body ends in an error, never "complete"

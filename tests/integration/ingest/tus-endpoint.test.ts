@@ -9,7 +9,7 @@ import { db, closeDb } from "@/db/client";
 import { custodyEvents, recordings } from "@/db/schema";
 import { closeRedis } from "@/lib/queue/redis";
 import { closeQueues, queue } from "@/lib/queue/jobs";
-import { storePath } from "@/lib/storage/local-store";
+import { diskPath, onDiskStore, storedSha256 } from "@/tests/support/stored-files";
 import { originalKey } from "@/lib/storage/storage-keys";
 import { recordingIdForUpload } from "@/lib/uploads/recording-id-for-upload";
 import { demoActors, type Actor, type DemoActorKey } from "@/tests/support/session";
@@ -83,10 +83,10 @@ describe("a 200 MB recording over a dropping link", () => {
     expect(row.id).toBe(recordingIdForUpload(uploadId));
 
     // the original left the staging folder for its write-once key, read-only, byte-exact
-    const stored = storePath(originalKey(row.organisationId, row.id));
-    expect(row.storageKey).toBe(originalKey(row.organisationId, row.id));
-    expect(await sha256sum(stored)).toBe(reference);
-    expect((await stat(stored)).mode & 0o777).toBe(0o444);
+    const stored = originalKey(row.organisationId, row.id);
+    expect(row.storageKey).toBe(stored);
+    expect(await storedSha256(stored)).toBe(reference);
+    if (onDiskStore()) expect((await stat(diskPath(stored))).mode & 0o777).toBe(0o444);
     expect(await stagedDataSize(uploadId)).toBeNull();
 
     // one custody event for it, and a processing job with the deterministic id

@@ -4,14 +4,15 @@
 // SHA-256 computed here with node:crypto, and the outputs come from a real derivation of an x264 stream.
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { createHash } from "node:crypto";
-import { mkdir, mkdtemp, readFile, rm, stat } from "node:fs/promises";
+import { mkdir, mkdtemp, rm } from "node:fs/promises";
 import os from "node:os";
 import path from "node:path";
 import { eq, inArray, or } from "drizzle-orm";
 import { db, closeDb } from "@/db/client";
 import { custodyEvents, recordings, renditions, signalTraces } from "@/db/schema";
 import { closeRedis } from "@/lib/queue/redis";
-import { storePath } from "@/lib/storage/local-store";
+import { withLocalCopy } from "@/lib/storage/store";
+import { storedBytes, storedKeysUnder } from "@/tests/support/stored-files";
 import { derivedFolderKey } from "@/lib/storage/storage-keys";
 import { commitRecordingOutputs } from "@/lib/processing/commit-recording-outputs";
 import { deriveRecordingOutputs, type DeriveResult } from "@/lib/processing/derive-recording-outputs";
@@ -39,7 +40,9 @@ async function derived(): Promise<{ rec: Awaited<ReturnType<typeof makeRecording
   const rec = await makeRecordingWithOriginal(orgId, source);
   const workDir = path.join(dir, rec.id);
   await mkdir(workDir, { recursive: true });
-  const result = await deriveRecordingOutputs({ declaredKind: "raw_h264", originalPath: storePath(rec.storageKey!), fpsOverride: null, organisationDefaultFps: 30, workDir, signal: new AbortController().signal });
+  const result = await withLocalCopy(rec.storageKey!, (originalPath) =>
+    deriveRecordingOutputs({ declaredKind: "raw_h264", originalPath, fpsOverride: null, organisationDefaultFps: 30, workDir, signal: new AbortController().signal }),
+  );
   return { rec, result, workDir };
 }
 
@@ -62,7 +65,7 @@ describe("commitRecordingOutputs", () => {
     expect(rows.map((r) => r.kind).sort()).toEqual(result.outputs.map((o) => o.kind).sort());
     for (const r of rows) {
       expect(r.storageKey.startsWith(`${derivedFolderKey(orgId, rec.id)}/`)).toBe(true);
-      const bytes = await readFile(storePath(r.storageKey));
+      const bytes = await storedBytes(r.storageKey);
       expect(createHash("sha256").update(bytes).digest("hex"), r.kind).toBe(r.sha256);
     }
     expect(await db().$count(signalTraces, eq(signalTraces.recordingId, rec.id))).toBe(result.trace ? 1 : 0);
@@ -91,7 +94,7 @@ describe("commitRecordingOutputs", () => {
     await db().update(recordings).set({ deletedAt: new Date() }).where(eq(recordings.id, rec.id));
     expect(await commitRecordingOutputs(rec, result, workDir, { queueJobId: "q-3", attempt: 1 })).toBe(false);
     expect(await db().$count(renditions, eq(renditions.recordingId, rec.id))).toBe(0);
-    expect(await stat(storePath(derivedFolderKey(orgId, rec.id))).then(() => true, () => false)).toBe(false);
+    expect(await storedKeysUnder(derivedFolderKey(orgId, rec.id))).toEqual([]);
     expect(await eventsFor(rec.id)).toEqual([]);
   });
 });

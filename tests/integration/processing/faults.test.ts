@@ -4,15 +4,16 @@
 // 2. SIGTERM while a job runs: the worker stops within its bound and hands the job back to the queue;
 // 3. Redis loses its data while jobs wait: the reconciler queues them again from Postgres.
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { createHash } from "node:crypto";
-import { readdir, readFile } from "node:fs/promises";
+import { readdir } from "node:fs/promises";
 import { and, eq, inArray } from "drizzle-orm";
 import IORedis from "ioredis";
 import { db, closeDb } from "@/db/client";
 import { custodyEvents, recordings, renditions } from "@/db/schema";
 import { closeRedis } from "@/lib/queue/redis";
 import { closeQueues, enqueue, queue } from "@/lib/queue/jobs";
-import { storePath } from "@/lib/storage/local-store";
+import { storedSha256 } from "@/tests/support/stored-files";
+import { removeDeadScratch } from "@/lib/storage/scratch";
+import { env } from "@/lib/config/env";
 import { makeRawH264 } from "@/tests/support/media/make-h264";
 import { demoOrganisationId } from "@/tests/support/session";
 import { TEST_ENV } from "@/tests/support/test-env";
@@ -102,14 +103,16 @@ describe("the worker as a process", () => {
     const rows = await renditionRows(rec.id);
     expect(rows.map((r) => r.kind).sort()).toEqual(["playable", "poster", "sprite", "thumbnails_vtt"]);
     for (const r of rows) {
-      expect(createHash("sha256").update(await readFile(storePath(r.storageKey))).digest("hex")).toBe(r.sha256);
+      expect(await storedSha256(r.storageKey)).toBe(r.sha256);
     }
     const runs = await db()
       .select()
       .from(custodyEvents)
       .where(and(eq(custodyEvents.evidenceId, rec.id), eq(custodyEvents.eventType, "processing")));
     expect(runs).toHaveLength(1);
-    const leftovers = (await readdir(storePath("tmp")).catch(() => [] as string[])).filter((n) => n.includes(rec.id));
+    // the killed worker's scratch folder is removed as that of a stopped process (the survivor removed its own work)
+    await removeDeadScratch();
+    const leftovers = (await readdir(env().scratchDir, { recursive: true }).catch(() => [] as string[])).filter((n) => n.includes(rec.id));
     expect(leftovers).toEqual([]);
     expect(survivor.output()).toMatch(/stalled/);
   });

@@ -8,8 +8,7 @@
 // - hashes by Node's crypto (SHA-256, FIPS 180-4).
 import { clientOf, tieClientAccount, untieClientAccount } from "@/tests/support/client-scope";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { createHash } from "node:crypto";
-import { readFile, rm, stat, writeFile } from "node:fs/promises";
+import { readFile, rm, writeFile } from "node:fs/promises";
 import path from "node:path";
 import os from "node:os";
 import { and, eq } from "drizzle-orm";
@@ -19,7 +18,8 @@ import { custodyEvents, recordings, renditions, signalTraces } from "@/db/schema
 import { closeRedis } from "@/lib/queue/redis";
 import { closeQueues, enqueue } from "@/lib/queue/jobs";
 import { ensureQueued } from "@/lib/queue/ensure-queued";
-import { storePath } from "@/lib/storage/local-store";
+import { storedSha256, storedText, withStoredFile } from "@/tests/support/stored-files";
+import { statKey } from "@/lib/storage/store";
 import { probeH264File } from "@/lib/h264/probe-stream";
 import { startWorker, type RunningWorker } from "@/worker/start-worker";
 import { recordingProgressReporter } from "@/worker/report-progress";
@@ -72,7 +72,6 @@ async function renditionsOf(recordingId: string) {
   return Object.fromEntries(rows.map((r) => [r.kind, r]));
 }
 
-const sha256File = async (p: string) => createHash("sha256").update(await readFile(p)).digest("hex");
 
 describe("a raw H.264 controller stream (432x240, 30 fps, Constrained Baseline)", () => {
   let id: string;
@@ -93,7 +92,7 @@ describe("a raw H.264 controller stream (432x240, 30 fps, Constrained Baseline)"
 
   it("makes an MP4 that mp4box reads as avc1.42..., 432x240, with ffprobe's frame count and frames/fps duration", async () => {
     const r = await renditionsOf(id);
-    const mp4 = await readMp4(storePath(r.playable.storageKey));
+    const mp4 = await withStoredFile(r.playable.storageKey, readMp4);
     expect(mp4.videoTracks).toHaveLength(1);
     const v = mp4.videoTracks[0];
     // RFC 6381 codec string: avc1.PPCCLL, profile_idc 0x42 = 66 (Baseline family)
@@ -110,19 +109,18 @@ describe("a raw H.264 controller stream (432x240, 30 fps, Constrained Baseline)"
     const r = await renditionsOf(id);
     expect(Object.keys(r).sort()).toEqual(["playable", "poster", "sprite", "thumbnails_vtt"]);
     for (const row of Object.values(r)) {
-      const file = storePath(row.storageKey);
-      expect(await sha256File(file)).toBe(row.sha256);
-      expect((await stat(file)).size).toBe(row.sizeBytes);
+      expect(await storedSha256(row.storageKey)).toBe(row.sha256);
+      expect((await statKey(row.storageKey))?.size).toBe(row.sizeBytes);
     }
     expect(r.playable.toolArgs).toEqual(expect.arrayContaining(["-f", "h264", "-r", "30", "-c:v", "copy", "+faststart"]));
-    const poster = await ffprobeSize(storePath(r.poster.storageKey));
+    const poster = await withStoredFile(r.poster.storageKey, ffprobeSize);
     expect(poster).toEqual({ codec: "mjpeg", width: 432, height: 240 });
     expect([r.poster.width, r.poster.height]).toEqual([poster.width, poster.height]);
   });
 
   it("writes a WebVTT track that an independent parser reads: ordered cues covering the duration, boxes inside the sprite", async () => {
     const r = await renditionsOf(id);
-    const text = await readFile(storePath(r.thumbnails_vtt.storageKey), "utf8");
+    const text = await storedText(r.thumbnails_vtt.storageKey);
     const parsed = new webvtt.WebVTTParser().parse(text, "metadata");
     expect(parsed.errors).toEqual([]);
     const cues = parsed.cues;
@@ -134,7 +132,7 @@ describe("a raw H.264 controller stream (432x240, 30 fps, Constrained Baseline)"
     }
     const [row] = await db().select({ durationSec: recordings.durationSec }).from(recordings).where(eq(recordings.id, id));
     expect(cues.at(-1)!.endTime).toBeCloseTo(row.durationSec!, 3);
-    const sprite = await ffprobeSize(storePath(r.sprite.storageKey));
+    const sprite = await withStoredFile(r.sprite.storageKey, ffprobeSize);
     expect(sprite.codec).toBe("mjpeg");
     expect([sprite.width, sprite.height]).toEqual([r.sprite.width, r.sprite.height]);
     for (const cue of cues) {
@@ -181,7 +179,7 @@ describe("a raw H.264 controller stream (432x240, 30 fps, Constrained Baseline)"
     for (const kind of Object.keys(before)) {
       expect(after[kind].id).toBe(before[kind].id);
       expect(after[kind].sha256).toBe(before[kind].sha256);
-      expect(await sha256File(storePath(after[kind].storageKey))).toBe(before[kind].sha256);
+      expect(await storedSha256(after[kind].storageKey)).toBe(before[kind].sha256);
     }
     const processing = await db()
       .select()
@@ -239,7 +237,7 @@ describe("frame rate", () => {
     const [row] = await waitForRecordings([rec.id]).then(() => db().select().from(recordings).where(eq(recordings.id, rec.id)));
     expect(row.state).toBe("ready");
     expect(row.facts).toMatchObject({ fps: 25, fpsSource: "recording-override", frameCount: frames });
-    const mp4 = await readMp4(storePath((await renditionsOf(rec.id)).playable.storageKey));
+    const mp4 = await withStoredFile((await renditionsOf(rec.id)).playable.storageKey, readMp4);
     expect(mp4.videoTracks[0].samples).toBe(frames);
     expect(Math.abs(mp4.videoTracks[0].durationSec - frames / 25)).toBeLessThanOrEqual(1 / 25);
   });
@@ -253,10 +251,10 @@ describe("a 1920x1080 stream (coded as 1920x1088, cropped by the SPS)", () => {
     expect(row.state).toBe("ready");
     // ITU-T H.264 7.4.2.1.1: 120 macroblock rows = 1088 lines, frame_crop_bottom_offset 4 x CropUnitY 2 = 8 lines off
     expect(row.facts).toMatchObject({ width: 1920, height: 1080, codedWidth: 1920, codedHeight: 1088 });
-    const mp4 = await readMp4(storePath((await renditionsOf(rec.id)).playable.storageKey));
+    const mp4 = await withStoredFile((await renditionsOf(rec.id)).playable.storageKey, readMp4);
     expect([mp4.videoTracks[0].width, mp4.videoTracks[0].height]).toEqual([1920, 1080]);
     expect(mp4.videoTracks[0].samples).toBe(await ffprobeFrameCount(file, true));
-    expect(await ffprobeSize(storePath((await renditionsOf(rec.id)).playable.storageKey))).toMatchObject({ width: 1920, height: 1080 });
+    expect(await withStoredFile((await renditionsOf(rec.id)).playable.storageKey, ffprobeSize)).toMatchObject({ width: 1920, height: 1080 });
   });
 });
 
@@ -275,7 +273,7 @@ describe("a stream that starts mid-GOP", () => {
     // Frames before the first IDR cannot be decoded exactly: the stream counts as damaged and is
     // re-encoded so that the MP4's time of frame slot k is k / fps, as on the recorder.
     expect(row.facts).toMatchObject({ startsWithIdr: false, playableFirstFrame: 0, playableMode: "reencode", streamFrameCount: whole.facts.frameCount - 5 });
-    const mp4 = await readMp4(storePath((await renditionsOf(rec.id)).playable.storageKey));
+    const mp4 = await withStoredFile((await renditionsOf(rec.id)).playable.storageKey, readMp4);
     // ffprobe on the cut source decodes from the first IDR: 25 frames fewer than the MP4, which holds
     // the first IDR picture over those 25 slots.
     expect(mp4.videoTracks[0].samples).toBe(whole.facts.frameCount - 5);
@@ -354,7 +352,7 @@ describe("camera recordings in a container", () => {
     const [row] = await db().select().from(recordings).where(eq(recordings.id, rec.id));
     expect(row.failureReason).toBeNull();
     expect(row.facts).toMatchObject({ codec: "h264", width: 320, height: 240, fps: 25, fpsSource: "container", playableMode: "remux", audioCodec: "aac" });
-    const mp4 = await readMp4(storePath((await renditionsOf(rec.id)).playable.storageKey));
+    const mp4 = await withStoredFile((await renditionsOf(rec.id)).playable.storageKey, readMp4);
     expect(mp4.videoTracks[0].samples).toBe(await ffprobeFrameCount(file));
     expect(mp4.audioTracks).toBe(1);
     expect(await db().select().from(signalTraces).where(eq(signalTraces.recordingId, rec.id))).toEqual([]);
@@ -371,7 +369,7 @@ describe("camera recordings in a container", () => {
     expect(row.failureReason).toBeNull();
     expect(row.facts).toMatchObject({ codec: "hevc", playableMode: "transcode" });
     const r = await renditionsOf(rec.id);
-    const mp4 = await readMp4(storePath(r.playable.storageKey));
+    const mp4 = await withStoredFile(r.playable.storageKey, readMp4);
     expect(mp4.videoTracks[0].codec).toMatch(/^avc1\./);
     expect([mp4.videoTracks[0].width, mp4.videoTracks[0].height]).toEqual([320, 240]);
     expect(mp4.videoTracks[0].samples).toBe(await ffprobeFrameCount(file));

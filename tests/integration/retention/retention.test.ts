@@ -17,7 +17,7 @@ import { listDisposals, FINAL_PACKAGE_PURPOSE } from "@/lib/retention/list-dispo
 import { sendDisposalReminders } from "@/lib/retention/send-disposal-reminders";
 import { disposeJob } from "@/lib/retention/dispose-job";
 import { readMailbox } from "@/lib/mail/read-mailbox";
-import { storePath } from "@/lib/storage/local-store";
+import { diskPath } from "@/tests/support/stored-files";
 import { verifyOrganisationChain } from "@/lib/custody/verify-organisation-chain";
 import { closeQueues } from "@/lib/queue/jobs";
 import { closeRedis } from "@/lib/queue/redis";
@@ -29,7 +29,7 @@ let actors: Record<DemoActorKey, Actor>;
 let orgId: string;
 let owner: { organisationId: string; userId: string; role: "owner" };
 const facts = { clientAddress: "198.51.100.7", userAgent: "vitest" };
-const exists = (key: string) => stat(storePath(key)).then(() => true, () => false);
+const exists = (key: string) => stat(diskPath(key)).then(() => true, () => false);
 const at = (iso: string) => new Date(iso);
 
 // The reference for date arithmetic: Python's datetime (date + timedelta), outside Cairn's code.

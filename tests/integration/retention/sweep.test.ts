@@ -6,7 +6,7 @@ import { stat } from "node:fs/promises";
 import { and, eq } from "drizzle-orm";
 import { db, closeDb } from "@/db/client";
 import * as s from "@/db/schema";
-import { storePath } from "@/lib/storage/local-store";
+import { diskPath } from "@/tests/support/stored-files";
 import { closeQueues, jobIdFor, queue } from "@/lib/queue/jobs";
 import { closeRedis } from "@/lib/queue/redis";
 import { runRetentionSweep } from "@/lib/retention/run-retention-sweep";
@@ -16,7 +16,7 @@ import { buildPackage, jobWithEvidence } from "../evidence-packages/package-fixt
 
 let actors: Record<DemoActorKey, Actor>;
 let orgId: string;
-const exists = (key: string) => stat(storePath(key)).then(() => true, () => false);
+const exists = (key: string) => stat(diskPath(key)).then(() => true, () => false);
 
 beforeAll(async () => {
   actors = await demoActors();

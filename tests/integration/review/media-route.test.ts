@@ -11,7 +11,7 @@ import { env } from "@/lib/config/env";
 import { signMediaGrant } from "@/lib/sharing/media-grant";
 import { generateShareToken, hashShareToken } from "@/lib/sharing/share-token";
 import { closeRedis } from "@/lib/queue/redis";
-import { storePath } from "@/lib/storage/local-store";
+import { diskPath } from "@/tests/support/stored-files";
 import { demoActors, demoOrganisationId, req, type Actor, type DemoActorKey } from "@/tests/support/session";
 import { makeFlight } from "@/tests/support/factories";
 import { makeProcessedRecording, type ProcessedRecording } from "@/tests/support/media/make-processed-recording";
@@ -36,7 +36,7 @@ beforeAll(async () => {
   // the demo client account may see this job (its client is tied to it)
   await tieClientAccount(actors.client!, await clientOf({ flightId: flight.id }));
   const row = rec.renditions.find((r) => r.kind === "playable")!;
-  playable = await readFile(storePath(row.storageKey));
+  playable = await readFile(diskPath(row.storageKey));
 });
 afterAll(async () => {
   await closeDb();

@@ -3,22 +3,19 @@
 // directly (the ingest and processing paths are tested elsewhere); file bytes are small and their
 // SHA-256 is computed here with Node's crypto, so downloads can be checked byte for byte.
 import { createHash, randomUUID } from "node:crypto";
-import { chmod, mkdir, writeFile } from "node:fs/promises";
-import path from "node:path";
+import { chmod } from "node:fs/promises";
 import { eq } from "drizzle-orm";
 import { db } from "@/db/client";
 import * as s from "@/db/schema";
-import { storePath } from "@/lib/storage/local-store";
+import { diskPath, onDiskStore, writeStoredBytes } from "@/tests/support/stored-files";
 import { derivedKey, originalKey } from "@/lib/storage/storage-keys";
 import { makeFlight } from "@/tests/support/factories";
 
 export const sha256 = (b: Buffer | string) => createHash("sha256").update(b).digest("hex");
 
 export async function putFile(key: string, bytes: Buffer | string, readOnly = false) {
-  const p = storePath(key);
-  await mkdir(path.dirname(p), { recursive: true });
-  await writeFile(p, bytes);
-  if (readOnly) await chmod(p, 0o444);
+  await writeStoredBytes(key, bytes);
+  if (readOnly && onDiskStore()) await chmod(diskPath(key), 0o444); // originals are read-only on disk
 }
 
 export type FixtureRecording = { id: string; originalBytes: Buffer; sha256: string; originalKey: string; renditionKeys: Record<string, string> };

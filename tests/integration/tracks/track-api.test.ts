@@ -12,7 +12,7 @@ import * as checkApi from "@/app/api/flights/[id]/track/range-checks/route";
 import { db, closeDb } from "@/db/client";
 import * as s from "@/db/schema";
 import { closeRedis } from "@/lib/queue/redis";
-import { storePath } from "@/lib/storage/local-store";
+import { diskPath } from "@/tests/support/stored-files";
 import { env } from "@/lib/config/env";
 import { inverse } from "@/lib/geo";
 import { demoActors, demoOrganisationId, req, route, type Actor, type DemoActorKey } from "@/tests/support/session";
@@ -72,7 +72,7 @@ describe("import", () => {
     const out = await res.json();
     expect(out).toMatchObject({ originalName: "hand-worked.gpx", format: "gpx", pointCount: 3, sizeBytes: bytes.byteLength });
     const [row] = await db().select().from(s.flightTracks).where(eq(s.flightTracks.id, out.id));
-    const file = storePath(row.storageKey);
+    const file = diskPath(row.storageKey);
     expect(readFileSync(file).equals(bytes)).toBe(true);
     // GNU coreutils sha256sum shares no code with Node's crypto
     expect(execFileSync("sha256sum", [file], { encoding: "utf8" }).split(" ")[0]).toBe(out.sha256);

@@ -10,7 +10,7 @@ import path from "node:path";
 import { eq } from "drizzle-orm";
 import { db } from "@/db/client";
 import * as s from "@/db/schema";
-import { placeOriginal } from "@/lib/storage/local-store";
+import { placeOriginal } from "@/lib/storage/store";
 import { originalKey } from "@/lib/storage/storage-keys";
 import { processRecording } from "@/worker/handlers/process-recording";
 import { sha256OfStream } from "@/lib/custody/sha256-stream";
