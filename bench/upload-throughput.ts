@@ -2,6 +2,9 @@
 // baseline of a plain streaming HTTP PUT to a bare Node http server that writes the body to the
 // same disk and fsyncs it, run side by side in one run. Prints both throughputs, their ratio, and
 // the peak resident memory (VmHWM) of the web process that served the tus upload.
+// With STORAGE_BACKEND=s3 the web process stores originals in the S3 store (the local S3 server must be
+// up: CAIRN_NEED_S3=1 npm run services:up), and the baseline is a plain multipart upload of the same
+// file to the same bucket with @aws-sdk/lib-storage (8 MiB parts, 4 at once), timed until it completes.
 // Targets: ratio >= 0.7, peak RSS < 300 MB. Each tus round uploads new bytes (64 random bytes are
 // rewritten first), so no round is taken for a duplicate; the bench removes its recordings after.
 //
@@ -143,6 +146,24 @@ async function main() {
   const flight = await makeFlight(pilot.organisationId, { aircraft: "bench" });
   const cookie = await sessionCookie(pilot);
 
+  // STORAGE_BACKEND=s3: the baseline is the SDK's own multipart upload of the file to the same bucket
+  const onS3 = env().STORAGE_BACKEND === "s3";
+  const s3Once = async () => {
+    const { objectStore } = await import("@/lib/storage/store");
+    const { S3Store } = await import("@/lib/storage/s3-store");
+    const { Upload } = await import("@aws-sdk/lib-storage");
+    const { DeleteObjectCommand } = await import("@aws-sdk/client-s3");
+    const store = objectStore();
+    if (!(store instanceof S3Store)) throw new Error("STORAGE_BACKEND=s3 expected");
+    await store.ensureBucket();
+    const Key = `bench-baseline/${process.pid}-${Date.now()}`;
+    const t0 = process.hrtime.bigint();
+    await new Upload({ client: store.client, params: { Bucket: store.opts.bucket, Key, Body: createReadStream(source), ContentLength: size }, partSize: 8 * 1024 * 1024, queueSize: 4 }).done();
+    const seconds = Number(process.hrtime.bigint() - t0) / 1e9;
+    await store.client.send(new DeleteObjectCommand({ Bucket: store.opts.bucket, Key }));
+    return seconds;
+  };
+
   const putOnce = () =>
     new Promise<number>((resolve, reject) => {
       const t0 = process.hrtime.bigint();
@@ -209,7 +230,9 @@ async function main() {
     .filter((c) => c !== UPLOAD_CHUNK_BYTES);
   type Side = { label: string; kind: "baseline" | "pieces" | "tus"; chunk: number; uploader?: boolean; run: () => Promise<number>; times: number[] };
   const sides: Side[] = [
-    { label: "baseline, plain streaming PUT + fsync", kind: "baseline", chunk: Infinity, run: putOnce, times: [] },
+    onS3
+      ? { label: "baseline, SDK multipart upload to the S3", kind: "baseline", chunk: Infinity, run: s3Once, times: [] }
+      : { label: "baseline, plain streaming PUT + fsync", kind: "baseline", chunk: Infinity, run: putOnce, times: [] },
     { label: `(context) bare server, ${mb(UPLOAD_CHUNK_BYTES)} PUTs + fsync`, kind: "pieces", chunk: UPLOAD_CHUNK_BYTES, run: () => putPieces(UPLOAD_CHUNK_BYTES), times: [] },
     { label: "tus, one PATCH (like-for-like)", kind: "tus", chunk: Infinity, run: () => freshen().then(() => tusOnce(Infinity)), times: [] },
     ...[UPLOAD_CHUNK_BYTES, ...extraChunks].map(
@@ -245,7 +268,7 @@ async function main() {
     const webPeak = await peakRssMiB(web.pid!);
     const basePeak = await peakRssMiB(baseline.pid!);
     console.log("");
-    console.log(`upload of ${mib} MiB over loopback, ${rounds} rounds (median times), web process: ${target === "next" ? `next start (${distDir})` : "stand-alone server around the route module"}; load average ${os.loadavg().map((l) => l.toFixed(1)).join(" ")} on ${os.cpus().length} CPUs`);
+    console.log(`upload of ${mib} MiB over loopback, ${rounds} rounds (median times), web process: ${target === "next" ? `next start (${distDir})` : "stand-alone server around the route module"}, store: ${env().STORAGE_BACKEND}; load average ${os.loadavg().map((l) => l.toFixed(1)).join(" ")} on ${os.cpus().length} CPUs`);
     console.log(`  ${"".padEnd(40)} ${"MiB/s".padStart(5)}  ${"median".padStart(8)}  ratio (per-round range)`);
     for (const s of sides) {
       const ratio = rate(s) / rate(base);

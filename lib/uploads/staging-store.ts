@@ -71,7 +71,13 @@ export class StagingStore extends FileStore {
    */
   constructor(
     directory: string,
-    private readonly opts: { fsyncEachWrite?: boolean; expiryMs?: number; admit?: (file: Upload) => Promise<void> } = {},
+    private readonly opts: {
+      fsyncEachWrite?: boolean;
+      expiryMs?: number;
+      admit?: (file: Upload) => Promise<void>;
+      /** makes admission one at a time per organisation beyond this process (the upload server passes a shared lock) */
+      admitOneAtATime?: <T>(organisationId: string, work: () => Promise<T>) => Promise<T>;
+    } = {},
   ) {
     super({ directory, expirationPeriodInMilliseconds: opts.expiryMs ?? UPLOAD_EXPIRY_MS });
   }
@@ -152,7 +158,10 @@ export class StagingStore extends FileStore {
       return created;
     };
     const org = file.metadata?.cairnOrg;
-    return org ? this.admissions.run(org, record) : record();
+    if (!org) return record();
+    const shared = this.opts.admitOneAtATime;
+    // in this process first (one waiting connection per organisation), then across processes
+    return this.admissions.run(org, () => (shared ? shared(org, record) : record()));
   }
 
   override async remove(id: string): Promise<void> {

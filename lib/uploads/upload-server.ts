@@ -1,6 +1,8 @@
-// The tus 1.0.0 server behind /api/uploads (creation, termination and expiration extensions), one
-// per process: its lock is in memory, so one upload server serves one staging folder (@tus/server
-// README, options.locker; docs/library-notes.md).
+// The tus 1.0.0 server behind /api/uploads (creation, termination and expiration extensions). Several
+// web processes may share one staging folder (UPLOAD_DIR on a shared file system): the lock of each
+// upload and the quota admission are PostgreSQL locks that every process sees
+// (lib/uploads/shared-upload-locks.ts), so an upload started through one instance can be finished
+// through another, and the running hash is then recomputed once from the staged file.
 // The Next route and the stand-alone test server both use this module, so tests exercise exactly
 // the hooks production runs.
 //
@@ -21,6 +23,7 @@ import { explainTusError } from "./explain-tus-error";
 import { readFileHead } from "./read-file-head";
 import { refusalMessage, sniffContent } from "./sniff-content";
 import { settleUpload } from "./settle-upload";
+import { SharedUploadLocker, withSharedLock } from "./shared-upload-locks";
 import { StagingStore } from "./staging-store";
 import { settledMark } from "./upload-metadata";
 import { SNIFF_BYTES, UPLOAD_ROUTE_PATH } from "./upload-limits";
@@ -45,11 +48,14 @@ export function createUploadService(directory: string): UploadService {
   // the quota is checked as the upload is recorded, one organisation's uploads at a time
   const store: StagingStore = new StagingStore(directory, {
     admit: (file) => assertWithinQuota(String(file.metadata?.cairnOrg), store, file.size ?? 0, file.metadata?.filename ?? file.id),
+    // "count, then record" is one step per organisation across every web process
+    admitOneAtATime: (org, work) => withSharedLock(`cairn-quota:${org}`, work),
   });
   const maxBytes = () => env().UPLOAD_MAX_BYTES;
   const server = new Server({
     path: UPLOAD_ROUTE_PATH,
     datastore: store,
+    locker: new SharedUploadLocker(),
     // a relative Location stays right behind a proxy that terminates TLS
     relativeLocation: true,
     allowedOrigins: [new URL(env().APP_URL).origin],

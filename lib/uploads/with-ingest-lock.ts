@@ -1,24 +1,13 @@
-// One commit per upload at a time, across every process that can commit one (the web server on
-// the client's last PATCH or HEAD, the purge in the worker). A PostgreSQL session advisory lock on
-// a reserved connection: it is released when the work ends, and by the server itself if the
-// process holding it dies, so a crash never leaves an upload locked.
+// One commit per upload at a time, across every process that can commit one (any web process on the
+// client's last PATCH or HEAD, the purge in a worker). A PostgreSQL transaction-level advisory lock
+// (lib/uploads/shared-upload-locks.ts): released when the work ends, and by the server itself if the
+// process holding it dies, so a crash never leaves an upload locked, and a transaction-mode pooling
+// proxy cannot break it.
 import "server-only";
-import { sqlClient } from "@/db/client";
+import { withSharedLockIfFree } from "./shared-upload-locks";
 
 export type LockResult<T> = { locked: true; value: T } | { locked: false };
 
-export async function withIngestLock<T>(uploadId: string, work: () => Promise<T>): Promise<LockResult<T>> {
-  const key = `cairn-ingest:${uploadId}`;
-  const conn = await sqlClient().reserve();
-  try {
-    const [row] = await conn<{ locked: boolean }[]>`select pg_try_advisory_lock(hashtextextended(${key}, 0)) as locked`;
-    if (!row.locked) return { locked: false };
-    try {
-      return { locked: true, value: await work() };
-    } finally {
-      await conn`select pg_advisory_unlock(hashtextextended(${key}, 0))`.catch(() => {});
-    }
-  } finally {
-    conn.release();
-  }
+export function withIngestLock<T>(uploadId: string, work: () => Promise<T>): Promise<LockResult<T>> {
+  return withSharedLockIfFree(`cairn-ingest:${uploadId}`, work);
 }
