@@ -64,41 +64,40 @@ start_redis() {
   log "Redis started on 127.0.0.1:$REDIS_PORT"
 }
 
-start_smtp() {
-  if port_open "$SMTP_PORT"; then
-    log "fake mail server already running on 127.0.0.1:$SMTP_PORT"; return
+# Starts one of the project's own local servers (a tsx script in docker-less-dev/) unless its port
+# answers already:  start_own_server NAME LABEL PORT SCRIPT PIDFILE WHAT [ENV=VALUE ...]
+start_own_server() {
+  local name="$1" label="$2" port="$3" script="$4" pidfile="$5" what="$6" logfile
+  shift 6
+  if port_open "$port"; then
+    log "$label already running on 127.0.0.1:$port"; return
   fi
+  logfile="$DATA/logs/$(basename "$script" .ts).log"
+  start_node_service "$script" "$pidfile" "$logfile" "$@"
+  # up to 30 s: the time-stamping authority's first start makes its certificates (a few openssl runs)
+  for _ in $(seq 1 300); do port_open "$port" && break; sleep 0.1; done
+  port_open "$port" || { log "$label did not start: see $logfile"; exit 1; }
+  note_started "$name"
+  log "$label on 127.0.0.1:$port ($what)"
+}
+
+start_smtp() {
   mkdir -p "$DATA/mail"
-  start_node_service docker-less-dev/fake-smtp.ts "$SMTP_PIDFILE" "$DATA/logs/fake-smtp.log" CAIRN_SMTP_PORT="$SMTP_PORT" MAIL_DIR="$DATA/mail"
-  for _ in $(seq 1 100); do port_open "$SMTP_PORT" && break; sleep 0.1; done
-  note_started smtp
-  log "fake mail server on 127.0.0.1:$SMTP_PORT (messages in $DATA/mail)"
+  start_own_server smtp "fake mail server" "$SMTP_PORT" docker-less-dev/fake-smtp.ts "$SMTP_PIDFILE" "messages in $DATA/mail" \
+    CAIRN_SMTP_PORT="$SMTP_PORT" MAIL_DIR="$DATA/mail"
 }
 
 # The local RFC 3161 time-stamping authority that custody checkpoints are stamped by
 # (docker-less-dev/fake-tsa.ts, answering with `openssl ts -reply`).
 start_tsa() {
-  if port_open "$TSA_PORT"; then
-    log "fake time-stamping authority already running on 127.0.0.1:$TSA_PORT"; return
-  fi
-  start_node_service docker-less-dev/fake-tsa.ts "$TSA_PIDFILE" "$DATA/logs/fake-tsa.log" CAIRN_TSA_PORT="$TSA_PORT" CAIRN_TSA_DIR="$DATA/tsa"
-  # the first start makes its CA and TSA certificates (a few openssl runs)
-  for _ in $(seq 1 300); do port_open "$TSA_PORT" && break; sleep 0.1; done
-  port_open "$TSA_PORT" || { log "fake time-stamping authority did not start: see $DATA/logs/fake-tsa.log"; exit 1; }
-  note_started tsa
-  log "fake time-stamping authority on 127.0.0.1:$TSA_PORT (certificates in $DATA/tsa)"
+  start_own_server tsa "fake time-stamping authority" "$TSA_PORT" docker-less-dev/fake-tsa.ts "$TSA_PIDFILE" "certificates in $DATA/tsa" \
+    CAIRN_TSA_PORT="$TSA_PORT" CAIRN_TSA_DIR="$DATA/tsa"
 }
 
 # The local S3 server (docker-less-dev/fake-s3.ts, s3rver from npm), for the bucket store.
 start_s3() {
-  if port_open "$S3_PORT"; then
-    log "local S3 server already running on 127.0.0.1:$S3_PORT"; return
-  fi
-  start_node_service docker-less-dev/fake-s3.ts "$S3_PIDFILE" "$DATA/logs/fake-s3.log" CAIRN_S3_PORT="$S3_PORT" CAIRN_S3_DIR="$DATA/s3"
-  for _ in $(seq 1 300); do port_open "$S3_PORT" && break; sleep 0.1; done
-  port_open "$S3_PORT" || { log "local S3 server did not start: see $DATA/logs/fake-s3.log"; exit 1; }
-  note_started s3
-  log "local S3 server on 127.0.0.1:$S3_PORT (objects in $DATA/s3)"
+  start_own_server s3 "local S3 server" "$S3_PORT" docker-less-dev/fake-s3.ts "$S3_PIDFILE" "objects in $DATA/s3" \
+    CAIRN_S3_PORT="$S3_PORT" CAIRN_S3_DIR="$DATA/s3"
 }
 
 if [ -n "${DATABASE_URL:-}" ]; then log "DATABASE_URL set: using that PostgreSQL"; else start_postgres; fi

@@ -20,15 +20,9 @@ import { TEST_ENV } from "@/tests/support/test-env";
 import { pendingJobs, waitForRecordings } from "@/tests/support/wait-jobs";
 import { makeRecordingWithOriginal } from "@/tests/support/factories";
 import { spawnWorker, type WorkerProcess } from "./support/spawn-worker";
+import { FAST_TAKEOVER_WORKER_ENV, quietQueue } from "./support/quiet-queue";
 
-// Short lock and stall checks so a dead worker's job is taken over in seconds, not a minute (yet long
-// enough that a live worker on a loaded 2-core machine keeps renewing its lock in time).
-const WORKER_ENV = {
-  CAIRN_WORKER_LOCK_MS: "8000",
-  CAIRN_WORKER_STALLED_CHECK_MS: "2000",
-  CAIRN_WORKER_SHUTDOWN_MS: "300",
-  CAIRN_WORKER_RECONCILE_MS: "600000",
-};
+const WORKER_ENV = FAST_TAKEOVER_WORKER_ENV;
 
 let orgId: string;
 let stream: string; // 20 s at 432x240: long enough to be caught mid-job
@@ -57,16 +51,7 @@ async function renditionRows(id: string) {
 }
 
 beforeAll(async () => {
-  // Start from a quiet queue: earlier test files in the same run leave jobs in Redis and rows in
-  // "waiting" (with fake originals) that a spawned worker would process first, and its reconciler would
-  // queue again, so the job under test could wait behind them past its deadline.
-  const redis = new IORedis(TEST_ENV.REDIS_URL);
-  await redis.flushdb();
-  await redis.quit();
-  await db()
-    .update(recordings)
-    .set({ state: "failed", failureReason: "left over by an earlier test file" })
-    .where(inArray(recordings.state, ["waiting", "processing"]));
+  await quietQueue();
   orgId = await demoOrganisationId();
   stream = await makeRawH264({ width: 432, height: 240, fps: 30, seconds: 20, gop: 30 });
   shortStream = await makeRawH264({ width: 432, height: 240, fps: 30, seconds: 2 });

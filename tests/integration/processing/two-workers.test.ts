@@ -5,7 +5,6 @@
 // (Node's crypto) matches their row. Runs on the disk store and, in npm test's second pass, on S3.
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { and, eq, inArray } from "drizzle-orm";
-import IORedis from "ioredis";
 import { db, closeDb } from "@/db/client";
 import { custodyEvents, recordings, renditions } from "@/db/schema";
 import { closeRedis } from "@/lib/queue/redis";
@@ -14,20 +13,13 @@ import { derivedFolderKey } from "@/lib/storage/storage-keys";
 import { storedKeysUnder, storedSha256 } from "@/tests/support/stored-files";
 import { makeRawH264 } from "@/tests/support/media/make-h264";
 import { demoOrganisationId } from "@/tests/support/session";
-import { TEST_ENV } from "@/tests/support/test-env";
 import { waitForRecordings } from "@/tests/support/wait-jobs";
 import { makeRecordingWithOriginal } from "@/tests/support/factories";
 import { spawnWorker, type WorkerProcess } from "./support/spawn-worker";
+import { FAST_TAKEOVER_WORKER_ENV, quietQueue } from "./support/quiet-queue";
 
 const BATCH = 50;
-// short lock and stall checks, so the killed worker's job is taken over in seconds (as in faults.test.ts)
-const WORKER_ENV = {
-  CAIRN_WORKER_LOCK_MS: "8000",
-  CAIRN_WORKER_STALLED_CHECK_MS: "2000",
-  CAIRN_WORKER_SHUTDOWN_MS: "300",
-  CAIRN_WORKER_RECONCILE_MS: "600000",
-  WORKER_CONCURRENCY: "1",
-};
+const WORKER_ENV = { ...FAST_TAKEOVER_WORKER_ENV, WORKER_CONCURRENCY: "1" };
 const spawned: WorkerProcess[] = [];
 let orgId: string;
 let ids: string[] = [];
@@ -37,14 +29,7 @@ async function readyCount(): Promise<number> {
 }
 
 beforeAll(async () => {
-  // a quiet queue, as in faults.test.ts: nothing left by earlier test files runs first
-  const redis = new IORedis(TEST_ENV.REDIS_URL);
-  await redis.flushdb();
-  await redis.quit();
-  await db()
-    .update(recordings)
-    .set({ state: "failed", failureReason: "left over by an earlier test file" })
-    .where(inArray(recordings.state, ["waiting", "processing"]));
+  await quietQueue();
   orgId = await demoOrganisationId();
   const stream = await makeRawH264({ width: 320, height: 180, fps: 30, seconds: 3, gop: 30 });
   ids = [];
