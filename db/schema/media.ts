@@ -169,3 +169,23 @@ export const playbackViews = pgTable(
   },
   (t) => [uniqueIndex("playback_views_key_uq").on(t.viewKey), index("playback_views_org_recording_idx").on(t.organisationId, t.recordingId, t.startedAt, t.id)],
 );
+
+/**
+ * One row per upload admitted and not yet settled (lib/uploads/upload-reservations.ts): the bytes it
+ * holds against the organisation's quota, reserved in the same transaction as the quota check, and
+ * the key its original will be placed at. `placing_since` is set just before the original is placed;
+ * a row that keeps it with no recording after a grace period is a commit that died between placing
+ * the file and its transaction, and the purge removes that original from database state alone.
+ */
+export const uploadReservations = pgTable(
+  "upload_reservations",
+  {
+    uploadId: text("upload_id").primaryKey(),
+    organisationId: orgRef(),
+    bytes: bigint("bytes", { mode: "number" }).notNull(),
+    originalKey: text("original_key").notNull(),
+    createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
+    placingSince: timestamp("placing_since", { withTimezone: true }),
+  },
+  (t) => [index("upload_reservations_org_idx").on(t.organisationId), index("upload_reservations_placing_idx").on(t.placingSince)],
+);

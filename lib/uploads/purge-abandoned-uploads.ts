@@ -6,23 +6,19 @@
 //     committed now, once it has been quiet for a while.
 //   - The record of a settled upload (tombstone) is dropped after its time to live.
 //   - Data files in the staging folder without an info file are deleted after the expiry.
-//   - A file in the originals store with no recording row (a commit that died between placing
-//     the file and its transaction, with its upload info gone too) is deleted after a grace
-//     period; one whose upload can still be committed is left for that commit.
+//   - An original placed by a commit that died between placing the file and its transaction, and
+//     that cannot be committed any more, is deleted after a grace period. It is found from database
+//     state (its placement mark in upload_reservations, with no recording), never by listing the store.
 import "server-only";
 import { readdir, stat, unlink } from "node:fs/promises";
 import path from "node:path";
-import { inArray, or } from "drizzle-orm";
-import { db } from "@/db/client";
-import { recordings } from "@/db/schema";
-import { listStored, removeKey } from "@/lib/storage/store";
-import { ORIGINALS_FOLDER } from "@/lib/storage/storage-keys";
-import { recordingIdForUpload } from "./recording-id-for-upload";
+import { removeKey } from "@/lib/storage/store";
 import { settleUpload } from "./settle-upload";
 import { StagingStore } from "./staging-store";
 import { settledMark } from "./upload-metadata";
 import { ORPHAN_GRACE_MS, STALLED_INGEST_AFTER_MS, UPLOAD_EXPIRY_MS, UPLOAD_TOMBSTONE_TTL_MS } from "./upload-limits";
 import { uploadService } from "./upload-server";
+import { keyInUse, releaseFiledReservations, releaseReservation, strandedPlacements, unplacedReservations } from "./upload-reservations";
 
 export type PurgeOptions = {
   now?: number;
@@ -50,8 +46,9 @@ export async function purgeAbandonedUploads(opts: PurgeOptions = {}): Promise<Pu
   const tombstoneTtlMs = opts.tombstoneTtlMs ?? UPLOAD_TOMBSTONE_TTL_MS;
   const stalledAfterMs = opts.stalledAfterMs ?? STALLED_INGEST_AFTER_MS;
   const report: PurgeReport = { expiredUploads: 0, committedStalled: 0, tombstonesRemoved: 0, strayFilesRemoved: 0, orphanOriginalsRemoved: 0 };
-  // recordings whose upload may still commit: their placed original is not an orphan
-  const pendingRecordingIds = new Set<string>();
+  // uploads that may still commit (their placed original is not an orphan), and all with an info file
+  const pendingUploadIds = new Set<string>();
+  const knownUploadIds = new Set<string>();
 
   const names = new Set(await readdir(store.directory).catch(() => [] as string[]));
   for (const name of names) {
@@ -61,6 +58,7 @@ export async function purgeAbandonedUploads(opts: PurgeOptions = {}): Promise<Pu
     try {
       const info = await store.readInfo(id);
       if (!info) continue;
+      knownUploadIds.add(id);
       const created = info.creation_date ? Date.parse(info.creation_date) : ((await mtimeOf(path.join(store.directory, name))) ?? now);
       const staged = await store.stagedSize(id);
       const mark = settledMark(info.metadata);
@@ -74,7 +72,7 @@ export async function purgeAbandonedUploads(opts: PurgeOptions = {}): Promise<Pu
       }
       const complete = info.size !== undefined && (staged === null || staged >= info.size);
       if (complete) {
-        pendingRecordingIds.add(recordingIdForUpload(id));
+        pendingUploadIds.add(id);
         const quietSince = (await mtimeOf(staged === null ? path.join(store.directory, name) : store.dataPath(id))) ?? created;
         if (now - quietSince < stalledAfterMs) continue;
         try {
@@ -113,34 +111,30 @@ export async function purgeAbandonedUploads(opts: PurgeOptions = {}): Promise<Pu
     }
   }
 
-  report.orphanOriginalsRemoved = await removeOrphanOriginals(now, opts.orphanGraceMs ?? ORPHAN_GRACE_MS, pendingRecordingIds);
+  report.orphanOriginalsRemoved = await removeOrphanOriginals(now, opts.orphanGraceMs ?? ORPHAN_GRACE_MS, expiryMs, pendingUploadIds, knownUploadIds);
   return report;
 }
 
-async function removeOrphanOriginals(now: number, graceMs: number, pending: Set<string>): Promise<number> {
-  const candidates: { key: string; recordingId: string }[] = [];
-  for await (const o of listStored(ORIGINALS_FOLDER)) {
-    const recordingId = o.key.split("/").pop()!;
-    if (now - o.modifiedAt.getTime() < graceMs || pending.has(recordingId)) continue;
-    candidates.push({ key: o.key, recordingId });
-  }
+/**
+ * Originals placed by a commit that died before its transaction (and could not be committed since):
+ * found from database state alone, the placement marks in upload_reservations with no recording
+ * (lib/uploads/upload-reservations.ts), never by listing the store. Also drops reservations that can
+ * no longer be used: their upload was filed, or its info file is gone past the expiry.
+ */
+async function removeOrphanOriginals(now: number, graceMs: number, expiryMs: number, pendingUploads: Set<string>, knownUploads: Set<string>): Promise<number> {
   let removed = 0;
-  const UUID = /^[0-9a-f-]{36}$/;
-  for (let i = 0; i < candidates.length; i += 500) {
-    const batch = candidates.slice(i, i + 500);
-    const ids = batch.map((c) => c.recordingId).filter((id) => UUID.test(id));
-    const keys = batch.map((c) => c.key);
-    const known = await db()
-      .select({ id: recordings.id, storageKey: recordings.storageKey })
-      .from(recordings)
-      .where(ids.length ? or(inArray(recordings.id, ids), inArray(recordings.storageKey, keys)) : inArray(recordings.storageKey, keys));
-    const referenced = new Set(known.flatMap((r) => [r.id, r.storageKey]));
-    for (const c of batch) {
-      if (referenced.has(c.recordingId) || referenced.has(c.key)) continue;
-      console.warn(`[purge] removing original without a recording row: ${c.key}`);
-      await removeKey(c.key);
+  for (const p of await strandedPlacements(new Date(now - graceMs))) {
+    if (pendingUploads.has(p.uploadId)) continue; // its commit can still run, and will use this original
+    if (!(await keyInUse(p.originalKey))) {
+      console.warn(`[purge] removing an original whose commit never filed a recording: ${p.originalKey}`);
+      await removeKey(p.originalKey);
       removed++;
     }
+    await releaseReservation(p.uploadId);
+  }
+  await releaseFiledReservations();
+  for (const r of await unplacedReservations(new Date(now - expiryMs))) {
+    if (!knownUploads.has(r.uploadId)) await releaseReservation(r.uploadId);
   }
   return removed;
 }

@@ -33,6 +33,7 @@ import { SNIFF_BYTES } from "./upload-limits";
 import { outcomeOfRow, outcomeOfUnfiledDuplicate, type UploadOutcome } from "./upload-outcome";
 import { UploadRefusal } from "./upload-refusal";
 import { withIngestLock } from "./with-ingest-lock";
+import { markNotPlaced, markPlacing, releaseReservation } from "./upload-reservations";
 
 export type SettleContext = {
   /** the request that triggered the commit, for the custody event's client address and user agent */
@@ -166,6 +167,7 @@ async function settleLocked(store: StagingStore, uploadId: string, meta: StoredU
       // another flight or job: a recording of its own in this flight, pointing at the held original
       await db().transaction(async (tx) => {
         await insertRecordingRow(tx, { ...rowValues, duplicateOfId: holder.id, storageKey: holder.storageKey });
+        await releaseReservation(uploadId, tx);
         await recordCustodyEvent({ ...custodyBase, eventType: "duplicate_upload", evidenceId: recordingId, storageLocation: holder.storageKey, details: { ...details, linked: true } }, tx);
         await ctx.beforeCommit?.();
       });
@@ -174,12 +176,16 @@ async function settleLocked(store: StagingStore, uploadId: string, meta: StoredU
       await enqueueProcessing(recordingId);
       return (await outcomeOfRow(org, uploadId))!;
     }
+    // from here until the recording's transaction, a death of this process leaves a placed original
+    // that only this mark finds (lib/uploads/purge-abandoned-uploads.ts)
+    await markPlacing({ uploadId, organisationId: org, bytes: size, originalKey: key });
     await placeOriginal(file, key);
   }
 
   try {
     await db().transaction(async (tx) => {
       await insertRecordingRow(tx, { ...rowValues, storageKey: key });
+      await releaseReservation(uploadId, tx); // the bytes now count as stored
       await recordCustodyEvent(
         { ...custodyBase, eventType: "upload", evidenceId: recordingId, storageLocation: key, details: { uploadId, originalName: meta.filename, relativePath: meta.relativePath ?? null, flightId: meta.flightId, kind: sniff.kind } },
         tx,
@@ -188,7 +194,7 @@ async function settleLocked(store: StagingStore, uploadId: string, meta: StoredU
     });
   } catch (err) {
     // no row: the original must not stay in the store; put it back so a retry can commit it
-    if (source === "staged") await returnToStaging(key, store.dataPath(uploadId)).catch((e) => console.error("[ingest] could not return an original to staging:", key, e));
+    if (source === "staged") await returnToStaging(key, store.dataPath(uploadId), uploadId).catch((e) => console.error("[ingest] could not return an original to staging:", key, e));
     throw err;
   }
   await store.markSettled(uploadId, { done: "stored", recordingId });
@@ -246,8 +252,9 @@ async function unfiledDuplicateOf(organisationId: string, uploadId: string): Pro
   return row?.evidenceId ?? null;
 }
 
-async function returnToStaging(key: string, stagedPath: string): Promise<void> {
+async function returnToStaging(key: string, stagedPath: string, uploadId: string): Promise<void> {
   await takeBackOriginal(key, stagedPath);
+  await markNotPlaced(uploadId);
 }
 
 async function enqueueProcessing(recordingId: string): Promise<void> {

@@ -11,8 +11,7 @@
 //    when another request wants the lock, as @tus/server's MemoryLocker does (an interrupted client's
 //    old request ends, its retry goes on); a holder in another process is waited for until the lock
 //    timeout (its request ends when its client's connection does).
-// 2. The quota admission: "count what the organisation uses, then record the new upload" as one step
-//    per organisation across every process (lib/uploads/check-upload-quota.ts).
+// 2. The commit of an upload (lib/uploads/with-ingest-lock.ts): one at a time, wherever it runs.
 //
 // Each lock holds a database connection of its own while it is held (one per upload request being
 // written, and one per commit), so uploads waiting for a lock never take the app's pooled connections.
@@ -59,16 +58,6 @@ async function holdLock(
     if (open && !dead) await conn`commit`.catch(() => {});
     await conn.end({ timeout: 1 }).catch(() => {});
   }
-}
-
-/** Runs `work` as the only holder of `name` across every process; waits up to `timeoutMs` for it. */
-export async function withSharedLock<T>(name: string, work: () => Promise<T>, timeoutMs = 30_000): Promise<T> {
-  let result: { value: T } | undefined;
-  const got = await holdLock(name, { timeoutMs }, async () => {
-    result = { value: await work() };
-  });
-  if (!got || !result) throw new Error(`could not take the lock ${name} within ${timeoutMs} ms`);
-  return result.value;
 }
 
 /** Tries `name` once: runs `work` if nobody holds it, answers { locked: false } if somebody does. */

@@ -75,8 +75,8 @@ export class StagingStore extends FileStore {
       fsyncEachWrite?: boolean;
       expiryMs?: number;
       admit?: (file: Upload) => Promise<void>;
-      /** makes admission one at a time per organisation beyond this process (the upload server passes a shared lock) */
-      admitOneAtATime?: <T>(organisationId: string, work: () => Promise<T>) => Promise<T>;
+      /** undoes what `admit` reserved: the upload was not recorded after all, was settled, or removed */
+      release?: (id: string) => Promise<void>;
     } = {},
   ) {
     super({ directory, expirationPeriodInMilliseconds: opts.expiryMs ?? UPLOAD_EXPIRY_MS });
@@ -113,6 +113,7 @@ export class StagingStore extends FileStore {
     if (mark.reason) metadata.cairnReason = mark.reason;
     if (mark.recordingId) metadata.cairnRecording = mark.recordingId;
     await this.configstore.set(id, new Upload({ id, size: info.size, offset: info.size ?? 0, metadata, creation_date: info.creation_date }));
+    await this.opts.release?.(id);
   }
 
   /** Removes the staged data only (the info file stays as a tombstone). */
@@ -153,20 +154,25 @@ export class StagingStore extends FileStore {
   override async create(file: Upload): Promise<Upload> {
     const record = async () => {
       await this.opts.admit?.(file);
-      const created = await super.create(file);
+      let created: Upload;
+      try {
+        created = await super.create(file);
+      } catch (err) {
+        await this.opts.release?.(file.id).catch(() => {});
+        throw err;
+      }
       this.running.set(file.id, { hash: createHash("sha256"), offset: 0, touched: Date.now() });
       return created;
     };
     const org = file.metadata?.cairnOrg;
-    if (!org) return record();
-    const shared = this.opts.admitOneAtATime;
-    // in this process first (one waiting connection per organisation), then across processes
-    return this.admissions.run(org, () => (shared ? shared(org, record) : record()));
+    // one at a time per organisation in this process, so its admissions do not queue in the database
+    return org ? this.admissions.run(org, record) : record();
   }
 
   override async remove(id: string): Promise<void> {
     this.running.delete(id);
     await super.remove(id);
+    await this.opts.release?.(id);
   }
 
   override async write(readable: Readable, id: string, offset: number): Promise<number> {

@@ -1,7 +1,7 @@
 // The tus 1.0.0 server behind /api/uploads (creation, termination and expiration extensions). Several
 // web processes may share one staging folder (UPLOAD_DIR on a shared file system): the lock of each
-// upload and the quota admission are PostgreSQL locks that every process sees
-// (lib/uploads/shared-upload-locks.ts), so an upload started through one instance can be finished
+// upload is a PostgreSQL lock that every process sees (lib/uploads/shared-upload-locks.ts) and the quota
+// is reserved in the database (lib/uploads/upload-reservations.ts), so an upload started through one instance can be finished
 // through another, and the running hash is then recomputed once from the staged file.
 // The Next route and the stand-alone test server both use this module, so tests exercise exactly
 // the hooks production runs.
@@ -12,18 +12,20 @@
 //                                (others get 404). A complete upload that was never committed is
 //                                committed before the request is answered.
 //   onUploadCreate               metadata, names, job and flight of the organisation, size.
-//   store.create (admit)         the storage quota, checked and reserved in one step per organisation.
+//   store.create (admit)         the storage quota, checked and the bytes reserved in one database
+//                                transaction (lib/uploads/check-upload-quota.ts).
 //   onUploadFinish               the commit (settle-upload.ts); its outcome rides on the response.
 import "server-only";
 import { Server } from "@tus/server";
 import { env } from "@/lib/config/env";
 import { authorizeUploadRequest } from "./authorize-upload-request";
-import { assertWithinQuota } from "./check-upload-quota";
+import { reserveWithinQuota } from "./check-upload-quota";
 import { explainTusError } from "./explain-tus-error";
 import { readFileHead } from "./read-file-head";
 import { refusalMessage, sniffContent } from "./sniff-content";
 import { settleUpload } from "./settle-upload";
-import { SharedUploadLocker, withSharedLock } from "./shared-upload-locks";
+import { SharedUploadLocker } from "./shared-upload-locks";
+import { releaseReservation } from "./upload-reservations";
 import { StagingStore } from "./staging-store";
 import { settledMark } from "./upload-metadata";
 import { SNIFF_BYTES, UPLOAD_ROUTE_PATH } from "./upload-limits";
@@ -47,9 +49,10 @@ export function uploadService(): UploadService {
 export function createUploadService(directory: string): UploadService {
   // the quota is checked as the upload is recorded, one organisation's uploads at a time
   const store: StagingStore = new StagingStore(directory, {
-    admit: (file) => assertWithinQuota(String(file.metadata?.cairnOrg), store, file.size ?? 0, file.metadata?.filename ?? file.id),
-    // "count, then record" is one step per organisation across every web process
-    admitOneAtATime: (org, work) => withSharedLock(`cairn-quota:${org}`, work),
+    // the quota is checked and the upload's bytes reserved in one database transaction
+    admit: (file) =>
+      reserveWithinQuota({ organisationId: String(file.metadata?.cairnOrg), uploadId: file.id, bytes: file.size ?? 0, fileName: file.metadata?.filename ?? file.id }),
+    release: (id) => releaseReservation(id),
   });
   const maxBytes = () => env().UPLOAD_MAX_BYTES;
   const server = new Server({

@@ -8,7 +8,6 @@ import { organisations, recordings } from "@/db/schema";
 import { closeRedis } from "@/lib/queue/redis";
 import { closeQueues } from "@/lib/queue/jobs";
 import { storageUse } from "@/lib/uploads/check-upload-quota";
-import { uploadService } from "@/lib/uploads/upload-server";
 import { demoActors, type Actor, type DemoActorKey } from "@/tests/support/session";
 import { makeFlight } from "@/tests/support/factories";
 import { startUploadServer } from "@/tests/support/upload-server";
@@ -130,8 +129,7 @@ describe("refused by content, checked by bytes", () => {
 
 describe("the organisation's storage quota", () => {
   it("refuses an Upload-Length above what is free, counting uploads in progress in full", async () => {
-    const { store } = uploadService();
-    const use = await storageUse(orgId, store);
+    const use = await storageUse(orgId);
     const free = 10_000_000;
     await db().update(organisations).set({ storageQuotaBytes: use.storedBytes + use.reservedBytes + free }).where(eq(organisations.id, orgId));
     await refused(
@@ -146,8 +144,7 @@ describe("the organisation's storage quota", () => {
   });
 
   it("creations at the same moment cannot together pass it: room for two, four asked, two created", async () => {
-    const { store } = uploadService();
-    const use = await storageUse(orgId, store);
+    const use = await storageUse(orgId);
     await db().update(organisations).set({ storageQuotaBytes: use.storedBytes + use.reservedBytes + 10_000_000 }).where(eq(organisations.id, orgId));
     const stagedBefore = await stagingFiles();
     const answers = await Promise.all(
@@ -157,7 +154,7 @@ describe("the organisation's storage quota", () => {
     for (const r of answers.filter((a) => a.status === 413)) expect((await r.json()).error.message).toMatch(/2\.0 MB of .* is free/);
     // only the two created uploads are in the folder (an info file and a data file each)
     expect((await stagingFiles()).length).toBe(stagedBefore.length + 4);
-    expect((await storageUse(orgId, store)).reservedBytes).toBe(use.reservedBytes + 8_000_000);
+    expect((await storageUse(orgId)).reservedBytes).toBe(use.reservedBytes + 8_000_000);
     await db().update(organisations).set({ storageQuotaBytes: null }).where(eq(organisations.id, orgId));
   });
 });

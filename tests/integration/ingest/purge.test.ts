@@ -5,16 +5,17 @@ import { readFile, stat, utimes, writeFile } from "node:fs/promises";
 import path from "node:path";
 import { Readable } from "node:stream";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { and, eq } from "drizzle-orm";
+import { and, eq, inArray } from "drizzle-orm";
 import { Upload } from "@tus/server";
 import { db, closeDb } from "@/db/client";
-import { recordings } from "@/db/schema";
+import { recordings, uploadReservations } from "@/db/schema";
 import { closeRedis } from "@/lib/queue/redis";
 import { closeQueues } from "@/lib/queue/jobs";
 import { storedBytes, storedExists, writeStoredBytes } from "@/tests/support/stored-files";
 import { originalKey } from "@/lib/storage/storage-keys";
 import { purgeAbandonedUploads } from "@/lib/uploads/purge-abandoned-uploads";
 import { settleUpload } from "@/lib/uploads/settle-upload";
+import { recordingIdForUpload } from "@/lib/uploads/recording-id-for-upload";
 import { toTusMetadata } from "@/lib/uploads/upload-metadata";
 import { uploadService } from "@/lib/uploads/upload-server";
 import { demoActors, type Actor, type DemoActorKey } from "@/tests/support/session";
@@ -91,26 +92,39 @@ describe("purgeAbandonedUploads", () => {
     expect(row).toMatchObject({ sha256: sha256Hex(other), state: "waiting", originalName: "never-committed.264" });
   });
 
-  it("removes an original without a row after the grace period, keeps fresh ones and those with rows", async () => {
-    const orphan = originalKey(orgId, randomUUID());
-    const freshOrphan = originalKey(orgId, randomUUID());
-    // ages come from the store's own modification times (an S3 server's LastModified has whole
-    // seconds), so the orphan is written 3 s before the fresh one and the grace period is 2 s
-    await writeStoredBytes(orphan, "bytes nobody filed");
-    await new Promise((r) => setTimeout(r, 3000));
-    await writeStoredBytes(freshOrphan, "bytes nobody filed");
+  it("removes an original whose commit died after placing it, found from the database after the grace period; keeps fresh ones and those with rows", async () => {
+    // what a commit leaves when its process dies between placing the original and its transaction
+    // (lib/uploads/settle-upload.ts): a placement mark in upload_reservations, a stored file, no recording
+    const placed = async (ageMs: number) => {
+      const uploadId = hexId();
+      const key = originalKey(orgId, recordingIdForUpload(uploadId));
+      await writeStoredBytes(key, "bytes nobody filed");
+      await db().insert(uploadReservations).values({ uploadId, organisationId: orgId, bytes: 18, originalKey: key, placingSince: new Date(Date.now() - ageMs) });
+      return { uploadId, key };
+    };
+    const orphan = await placed(2 * DAY);
+    const freshOrphan = await placed(0);
+    // a file that no placement mark names is not looked for: the purge never lists the store
+    const unmarked = originalKey(orgId, randomUUID());
+    await writeStoredBytes(unmarked, "bytes nobody filed");
     // a recording this file stored through an upload (the demo organisation also holds rows other
-    // test files made with keys that name no stored file)
+    // test files made with keys that name no stored file), its mark kept as if its release was lost
     const [withRow] = await db()
       .select()
       .from(recordings)
       .where(and(eq(recordings.organisationId, orgId), eq(recordings.originalName, "finished-long-ago.264")));
+    await db()
+      .insert(uploadReservations)
+      .values({ uploadId: withRow.uploadId!, organisationId: orgId, bytes: 1, originalKey: withRow.storageKey!, placingSince: new Date(Date.now() - 2 * DAY) });
 
-    const report = await purgeAbandonedUploads({ orphanGraceMs: 2000 });
+    const report = await purgeAbandonedUploads({ orphanGraceMs: DAY });
     expect(report.orphanOriginalsRemoved).toBe(1);
-    expect(await storedExists(orphan)).toBe(false);
-    expect(await storedExists(freshOrphan)).toBe(true);
+    expect(await storedExists(orphan.key)).toBe(false);
+    expect(await storedExists(freshOrphan.key)).toBe(true);
+    expect(await storedExists(unmarked)).toBe(true);
     expect(await storedExists(withRow.storageKey!)).toBe(true);
+    const left = await db().select({ id: uploadReservations.uploadId }).from(uploadReservations).where(inArray(uploadReservations.uploadId, [orphan.uploadId, freshOrphan.uploadId, withRow.uploadId!]));
+    expect(left.map((r) => r.id)).toEqual([freshOrphan.uploadId]);
   });
 
   it("removes staging data files whose info file is gone, after the expiry", async () => {
