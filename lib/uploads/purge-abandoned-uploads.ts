@@ -64,6 +64,7 @@ export async function purgeAbandonedUploads(opts: PurgeOptions = {}): Promise<Pu
       const mark = settledMark(info.metadata);
       if (mark) {
         if (staged !== null) await store.removeData(id); // a settled upload keeps no data here
+        await releaseReservation(id); // its bytes count no more (the release at its outcome may have failed)
         if (now - created > tombstoneTtlMs) {
           await store.removeInfo(id);
           report.tombstonesRemoved++;

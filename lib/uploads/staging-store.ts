@@ -113,7 +113,8 @@ export class StagingStore extends FileStore {
     if (mark.reason) metadata.cairnReason = mark.reason;
     if (mark.recordingId) metadata.cairnRecording = mark.recordingId;
     await this.configstore.set(id, new Upload({ id, size: info.size, offset: info.size ?? 0, metadata, creation_date: info.creation_date }));
-    await this.opts.release?.(id);
+    // the outcome is written; should the database be away now, the purge releases it later
+    await this.opts.release?.(id).catch((err) => console.warn(`[uploads] reservation of ${id} kept for the purge:`, (err as Error).message));
   }
 
   /** Removes the staged data only (the info file stays as a tombstone). */
