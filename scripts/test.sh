@@ -31,8 +31,10 @@ echo "[cairn] unit tests"
 npx vitest run --project unit
 echo "[cairn] integration tests (real PostgreSQL, Redis, ffmpeg)"
 npx vitest run --project integration
-echo "[cairn] the storage, ingest, processing and sharing integration tests again, on the S3 store (local S3 server)"
-STORAGE_BACKEND=s3 npx vitest run --project integration tests/integration/storage tests/integration/ingest tests/integration/processing tests/integration/sharing
+echo "[cairn] the integration tests that store or read files, again on the S3 store (local S3 server)"
+STORAGE_BACKEND=s3 npx vitest run --project integration tests/integration/storage tests/integration/ingest tests/integration/processing \
+  tests/integration/sharing tests/integration/review tests/integration/evidence-packages tests/integration/retention tests/integration/tracks \
+  tests/integration/custody/legal-hold-deletion.test.ts
 echo "[cairn] building the web app for the browser tests"
 # a parallel test slot builds into a folder of its own (tests/support/test-env.ts)
 if [ -n "${CAIRN_TEST_SLOT:-}" ] && [ "${CAIRN_TEST_SLOT}" != "0" ]; then export NEXT_DIST_DIR=".next-test-${CAIRN_TEST_SLOT}"; fi

@@ -28,6 +28,13 @@ export async function storedKeysUnder(prefix: string): Promise<string[]> {
 /** Runs `fn` on a local file with the stored bytes (ffprobe, mp4box.js and ffmpeg need a path). */
 export const withStoredFile = <T>(key: string, fn: (file: string) => Promise<T> | T) => withLocalCopy(key, async (f) => fn(f));
 
+/** A local file with a copy of the stored bytes, for tools that read files (left in the temp folder). */
+export async function storedFileCopy(key: string): Promise<string> {
+  const file = path.join(os.tmpdir(), `cairn-test-copy-${randomUUID()}${path.extname(key)}`);
+  await writeFile(file, await readStoredBytes(key));
+  return file;
+}
+
 /** Puts bytes at a key (a fixture, or a file the test damages on purpose). */
 export async function writeStoredBytes(key: string, bytes: Buffer | string): Promise<void> {
   const temp = path.join(os.tmpdir(), `cairn-test-put-${randomUUID()}`);

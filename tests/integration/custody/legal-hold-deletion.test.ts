@@ -3,14 +3,13 @@
 // recorded too.
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { and, eq } from "drizzle-orm";
-import { stat } from "node:fs/promises";
 import { db, closeDb } from "@/db/client";
 import * as s from "@/db/schema";
 import * as hold from "@/app/api/jobs/[id]/hold/route";
 import * as deletion from "@/app/api/recordings/[id]/deletion/route";
 import * as trail from "@/app/api/custody/route";
 import { clientOf, tieClientAccount } from "@/tests/support/client-scope";
-import { diskPath } from "@/tests/support/stored-files";
+import { storedExists } from "@/tests/support/stored-files";
 import { verifyOrganisationChain } from "@/lib/custody/verify-organisation-chain";
 import { demoActors, demoOrganisationId, req, route, type Actor, type DemoActorKey } from "@/tests/support/session";
 import { closeRedis } from "@/lib/queue/redis";
@@ -20,7 +19,7 @@ let actors: Record<DemoActorKey, Actor>;
 let orgId: string;
 let job: Awaited<ReturnType<typeof makeSharedJob>>;
 
-const exists = (key: string) => stat(diskPath(key)).then(() => true, () => false);
+const exists = storedExists;
 const setHold = async (who: DemoActorKey, body: unknown, jobId = job.jobId) => hold.PUT(await req(actors[who], "PUT", `/api/jobs/${jobId}/hold`, body), route({ id: jobId }));
 const del = async (who: DemoActorKey, recordingId: string, body: unknown = {}) =>
   deletion.POST(await req(actors[who], "POST", `/api/recordings/${recordingId}/deletion`, body, { "user-agent": "vitest-owner" }), route({ id: recordingId }));

@@ -9,7 +9,7 @@ import path from "node:path";
 import { and, eq } from "drizzle-orm";
 import { db, closeDb } from "@/db/client";
 import * as s from "@/db/schema";
-import { diskPath } from "@/tests/support/stored-files";
+import { storedFileCopy } from "@/tests/support/stored-files";
 import { closeRedis } from "@/lib/queue/redis";
 import { closeQueues } from "@/lib/queue/jobs";
 import { demoActors, demoOrganisationId, type Actor, type DemoActorKey } from "@/tests/support/session";
@@ -36,7 +36,7 @@ beforeAll(async () => {
   if (!pythonBagit) console.warn("[bagit-package.test] Python's bagit is not installed: `pip install bagit` (bagit-python) to run its validation here");
   const { outcome, row } = await buildPackage(owner, { jobId: job.jobId });
   expect(outcome).toBe("built");
-  zipPath = diskPath(row.storageKey!);
+  zipPath = await storedFileCopy(row.storageKey!);
   zip = await readFile(zipPath);
   const dir = await unzipTo(zipPath);
   cleanup.push(dir);

@@ -4,7 +4,6 @@
 // leaves the custody trail with the SHA-256 of everything destroyed and who confirmed it.
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { execFileSync } from "node:child_process";
-import { stat } from "node:fs/promises";
 import { and, eq, inArray } from "drizzle-orm";
 import { db, closeDb } from "@/db/client";
 import * as s from "@/db/schema";
@@ -17,7 +16,7 @@ import { listDisposals, FINAL_PACKAGE_PURPOSE } from "@/lib/retention/list-dispo
 import { sendDisposalReminders } from "@/lib/retention/send-disposal-reminders";
 import { disposeJob } from "@/lib/retention/dispose-job";
 import { readMailbox } from "@/lib/mail/read-mailbox";
-import { diskPath } from "@/tests/support/stored-files";
+import { storedExists } from "@/tests/support/stored-files";
 import { verifyOrganisationChain } from "@/lib/custody/verify-organisation-chain";
 import { closeQueues } from "@/lib/queue/jobs";
 import { closeRedis } from "@/lib/queue/redis";
@@ -29,7 +28,7 @@ let actors: Record<DemoActorKey, Actor>;
 let orgId: string;
 let owner: { organisationId: string; userId: string; role: "owner" };
 const facts = { clientAddress: "198.51.100.7", userAgent: "vitest" };
-const exists = (key: string) => stat(diskPath(key)).then(() => true, () => false);
+const exists = storedExists;
 const at = (iso: string) => new Date(iso);
 
 // The reference for date arithmetic: Python's datetime (date + timedelta), outside Cairn's code.

@@ -2,11 +2,10 @@
 // and read as expired (row, SHA-256 and custody events kept), and a package whose queued job Redis lost
 // is queued again, once.
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { stat } from "node:fs/promises";
 import { and, eq } from "drizzle-orm";
 import { db, closeDb } from "@/db/client";
 import * as s from "@/db/schema";
-import { diskPath } from "@/tests/support/stored-files";
+import { storedExists } from "@/tests/support/stored-files";
 import { closeQueues, jobIdFor, queue } from "@/lib/queue/jobs";
 import { closeRedis } from "@/lib/queue/redis";
 import { runRetentionSweep } from "@/lib/retention/run-retention-sweep";
@@ -16,7 +15,7 @@ import { buildPackage, jobWithEvidence } from "../evidence-packages/package-fixt
 
 let actors: Record<DemoActorKey, Actor>;
 let orgId: string;
-const exists = (key: string) => stat(diskPath(key)).then(() => true, () => false);
+const exists = storedExists;
 
 beforeAll(async () => {
   actors = await demoActors();

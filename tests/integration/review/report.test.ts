@@ -2,7 +2,7 @@
 // stills extracted, a version requested, built by the worker handler, parsed back with pdfjs-dist
 // (an independent PDF reader), approved by the owner, downloaded.
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { readFile, writeFile } from "node:fs/promises";
+import { writeFile } from "node:fs/promises";
 import os from "node:os";
 import path from "node:path";
 import { createHash } from "node:crypto";
@@ -17,7 +17,7 @@ import { db, closeDb } from "@/db/client";
 import * as s from "@/db/schema";
 import { closeRedis } from "@/lib/queue/redis";
 import { closeQueues } from "@/lib/queue/jobs";
-import { diskPath } from "@/tests/support/stored-files";
+import { storedBytes, storedSha256, writeStoredBytes } from "@/tests/support/stored-files";
 import { describeMoment } from "@/lib/findings/describe-moment";
 import { SEVERITY_SCALE, type Severity } from "@/lib/findings/severity-scale";
 import { extractStill } from "@/worker/handlers/extract-still";
@@ -91,7 +91,7 @@ describe("building, reading back, approving and downloading a report", () => {
     const view = await (await reportApi.GET(await req(actors.reviewer, "GET", "/x"), route({ id: reportId }))).json();
     expect(view).toMatchObject({ state: "ready", progress: 100, downloadUrl: `/api/reports/${reportId}/download` });
     const [row] = await db().select().from(s.reports).where(eq(s.reports.id, reportId));
-    pdf = await readFile(diskPath(row.storageKey!));
+    pdf = await storedBytes(row.storageKey!);
     expect(createHash("sha256").update(pdf).digest("hex")).toBe(row.sha256); // Node crypto as the oracle
     expect(pdf.subarray(0, 5).toString()).toBe("%PDF-");
     const [ev] = await db().select().from(s.custodyEvents).where(and(eq(s.custodyEvents.evidenceId, reportId), eq(s.custodyEvents.eventType, "report_built")));
@@ -186,7 +186,7 @@ describe("building, reading back, approving and downloading a report", () => {
     expect((await approveApi.POST(await req(actors.owner, "POST", "/x"), route({ id: reportId }))).status).toBe(409);
     // a build of the approved version changes nothing
     expect(await buildReport({ reportId })).toBe("immutable");
-    expect(createHash("sha256").update(await readFile(diskPath(row.storageKey!))).digest("hex")).toBe(row.sha256);
+    expect(await storedSha256(row.storageKey!)).toBe(row.sha256);
     // the next build is a new version
     const next = await (await reportsApi.POST(await req(actors.owner, "POST", "/api/reports", { jobId }))).json();
     expect(next.version).toBe(2);
@@ -210,7 +210,7 @@ describe("building, reading back, approving and downloading a report", () => {
     const next = await (await reportsApi.POST(await req(actors.owner, "POST", "/api/reports", { jobId }))).json();
     expect(await buildReport({ reportId: next.id })).toBe("built");
     const [row] = await db().select().from(s.reports).where(eq(s.reports.id, next.id));
-    await writeFile(diskPath(row.storageKey!), Buffer.concat([pdf, Buffer.from("\n% tampered\n")]));
+    await writeStoredBytes(row.storageKey!, Buffer.concat([pdf, Buffer.from("\n% tampered\n")]));
     const res = await approveApi.POST(await req(actors.owner, "POST", "/x"), route({ id: next.id }));
     expect(res.status).toBe(409);
     const [after] = await db().select().from(s.reports).where(eq(s.reports.id, next.id));

@@ -3,7 +3,6 @@
 // carries the frame number burned in, so a neighbouring frame differs clearly.
 import { clientOf, tieClientAccount } from "@/tests/support/client-scope";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { readFile } from "node:fs/promises";
 import { createHash } from "node:crypto";
 import { and, eq } from "drizzle-orm";
 import * as list from "@/app/api/findings/route";
@@ -12,7 +11,7 @@ import { db, closeDb } from "@/db/client";
 import * as s from "@/db/schema";
 import { closeRedis } from "@/lib/queue/redis";
 import { closeQueues } from "@/lib/queue/jobs";
-import { diskPath } from "@/tests/support/stored-files";
+import { storedBytes, storedFileCopy } from "@/tests/support/stored-files";
 import { extractStill } from "@/worker/handlers/extract-still";
 import { demoActors, demoOrganisationId, req, type Actor, type DemoActorKey } from "@/tests/support/session";
 import { makeFlight } from "@/tests/support/factories";
@@ -60,7 +59,7 @@ beforeAll(async () => {
   rec = await makeProcessedRecording(orgId, await makeFlight(orgId), { seconds: 2, fps: 30, width: W, height: H, gop: 15 });
   // the demo client account may see this job (its client is tied to it)
   await tieClientAccount(actors.client!, await clientOf({ recordingId: rec.recording.id }));
-  playablePath = diskPath(rec.renditions.find((r) => r.kind === "playable")!.storageKey);
+  playablePath = await storedFileCopy(rec.renditions.find((r) => r.kind === "playable")!.storageKey);
 });
 afterAll(async () => {
   await closeQueues();
@@ -75,9 +74,9 @@ describe("frame-accurate stills", () => {
     const still = await markAndExtract(n);
     expect(still.state).toBe("ready");
     expect([still.width, still.height]).toEqual([W, H]);
-    const stored = await readFile(diskPath(still.storageKey!));
+    const stored = await storedBytes(still.storageKey!);
     expect(createHash("sha256").update(stored).digest("hex")).toBe(still.sha256);
-    const mine = await decodeGray(["-i", diskPath(still.storageKey!)]);
+    const mine = await decodeGray(["-i", await storedFileCopy(still.storageKey!)]);
     const reference = await referenceFrame(n);
     const same = meanAbsDiff(mine, reference);
     // JPEG at -q:v 2 on a synthetic pattern: measured 0.36 to 0.44 levels of 255 on average

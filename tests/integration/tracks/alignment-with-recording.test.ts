@@ -10,7 +10,7 @@ import * as alignApi from "@/app/api/flights/[id]/track/alignment/route";
 import { db, closeDb } from "@/db/client";
 import * as s from "@/db/schema";
 import { closeRedis } from "@/lib/queue/redis";
-import { diskPath } from "@/tests/support/stored-files";
+import { storedFileCopy } from "@/tests/support/stored-files";
 import { demoActors, demoOrganisationId, req, route, type Actor, type DemoActorKey } from "@/tests/support/session";
 import { makeFlight } from "@/tests/support/factories";
 import { makeCounterH264, makeProcessedRecording } from "@/tests/support/media/make-processed-recording";
@@ -87,8 +87,9 @@ describe("alignment with a generated recording and a generated track", () => {
     // and a different one from its neighbour's
     const playable = renditions.find((r) => r.kind === "playable")!;
     const original = await makeCounterH264({ seconds: SECONDS, fps: FPS });
-    const same = psnr(diskPath(playable.storageKey), frame, original, frame, "h264");
-    const neighbour = psnr(diskPath(playable.storageKey), frame, original, frame + 1, "h264");
+    const playableFile = await storedFileCopy(playable.storageKey);
+    const same = psnr(playableFile, frame, original, frame, "h264");
+    const neighbour = psnr(playableFile, frame, original, frame + 1, "h264");
     expect(same).toBeGreaterThan(30);
     expect(same).toBeGreaterThan(neighbour + 3);
 

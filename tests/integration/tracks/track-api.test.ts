@@ -12,7 +12,7 @@ import * as checkApi from "@/app/api/flights/[id]/track/range-checks/route";
 import { db, closeDb } from "@/db/client";
 import * as s from "@/db/schema";
 import { closeRedis } from "@/lib/queue/redis";
-import { diskPath } from "@/tests/support/stored-files";
+import { diskPath, onDiskStore, storedFileCopy } from "@/tests/support/stored-files";
 import { env } from "@/lib/config/env";
 import { inverse } from "@/lib/geo";
 import { demoActors, demoOrganisationId, req, route, type Actor, type DemoActorKey } from "@/tests/support/session";
@@ -72,11 +72,11 @@ describe("import", () => {
     const out = await res.json();
     expect(out).toMatchObject({ originalName: "hand-worked.gpx", format: "gpx", pointCount: 3, sizeBytes: bytes.byteLength });
     const [row] = await db().select().from(s.flightTracks).where(eq(s.flightTracks.id, out.id));
-    const file = diskPath(row.storageKey);
+    const file = await storedFileCopy(row.storageKey);
     expect(readFileSync(file).equals(bytes)).toBe(true);
     // GNU coreutils sha256sum shares no code with Node's crypto
     expect(execFileSync("sha256sum", [file], { encoding: "utf8" }).split(" ")[0]).toBe(out.sha256);
-    expect(statSync(file).mode & 0o222).toBe(0); // read-only
+    if (onDiskStore()) expect(statSync(diskPath(row.storageKey)).mode & 0o222).toBe(0); // read-only on disk
     expect(await custodyCount()).toBe(before + 1);
     const [ev] = await db().select().from(s.custodyEvents).where(and(eq(s.custodyEvents.organisationId, orgId), eq(s.custodyEvents.evidenceId, out.id)));
     expect(ev).toMatchObject({ eventType: "track_imported", evidenceType: "track", originalSha256: out.sha256, originalSize: bytes.byteLength, storageLocation: row.storageKey });
