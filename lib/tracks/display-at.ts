@@ -2,19 +2,13 @@
 // sends (plan metres east/north of the launch, height, ground distance): linear between the two points
 // around the moment, like lib/tracks/track-position-at.ts on the full track; null outside the track or
 // in a gap longer than MAX_GAP_MS.
-import { MAX_GAP_MS } from "./track-position-at";
+import { lastPointAtOrBefore, MAX_GAP_MS } from "./track-position-at";
 
 export type DisplayPoint = { t: number; east: number; north: number; h: number | null; d: number; state: "intact" | "damaged" | "lost" | "unrecorded" };
 
 export function displayAt(points: readonly DisplayPoint[], t: number): (Omit<DisplayPoint, "t"> & { t: number }) | null {
   if (!points.length || t < points[0].t || t > points[points.length - 1].t) return null;
-  let lo = 0;
-  let hi = points.length - 1;
-  while (lo < hi) {
-    const mid = (lo + hi + 1) >> 1;
-    if (points[mid].t <= t) lo = mid;
-    else hi = mid - 1;
-  }
+  const lo = lastPointAtOrBefore(points, t);
   const a = points[lo];
   if (a.t === t || lo === points.length - 1) return a;
   const b = points[lo + 1];

@@ -12,12 +12,8 @@ export type PositionAt =
   | { ok: true; lat: number; lon: number; h: number | null; /** the track point nearest in time, 0-based */ nearest: number; /** ms to it */ nearestMs: number }
   | { ok: false; reason: string };
 
-export function trackPositionAt(points: readonly TrackPoint[], t: number): PositionAt {
-  if (!points.length) return { ok: false, reason: "the track has no points" };
-  const first = points[0].t;
-  const last = points[points.length - 1].t;
-  if (t < first || t > last) return { ok: false, reason: `outside the track (it runs ${iso(first)} to ${iso(last)})` };
-  // binary search: the last point at or before t
+/** Index of the last point at or before `t` (binary search; points in time order, t not before the first). */
+export function lastPointAtOrBefore(points: readonly { t: number }[], t: number): number {
   let lo = 0;
   let hi = points.length - 1;
   while (lo < hi) {
@@ -25,6 +21,15 @@ export function trackPositionAt(points: readonly TrackPoint[], t: number): Posit
     if (points[mid].t <= t) lo = mid;
     else hi = mid - 1;
   }
+  return lo;
+}
+
+export function trackPositionAt(points: readonly TrackPoint[], t: number): PositionAt {
+  if (!points.length) return { ok: false, reason: "the track has no points" };
+  const first = points[0].t;
+  const last = points[points.length - 1].t;
+  if (t < first || t > last) return { ok: false, reason: `outside the track (it runs ${iso(first)} to ${iso(last)})` };
+  const lo = lastPointAtOrBefore(points, t);
   const a = points[lo];
   if (a.t === t || lo === points.length - 1) return { ok: true, lat: a.lat, lon: a.lon, h: a.h, nearest: lo, nearestMs: Math.abs(t - a.t) };
   const b = points[lo + 1];
