@@ -44,11 +44,12 @@ async function holdLock(
     await conn`begin`;
     open = true;
     for (;;) {
+      // checked right before each query: the connection may have closed during the wait below
+      if (dead) throw new Error("the database connection closed while waiting for a lock");
       const [row] = await conn<{ locked: boolean }[]>`select pg_try_advisory_xact_lock(hashtextextended(${name}, 0)) as locked`;
       if (row.locked) break;
       await opts.whileWaiting?.();
       if (opts.signal?.aborted || Date.now() > deadline) return false;
-      if (dead) throw new Error("the database connection closed while waiting for a lock");
       await sleep(50);
     }
     await whileHeld();

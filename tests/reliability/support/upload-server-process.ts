@@ -30,5 +30,9 @@ export async function startUploadServerProcess(port: number, env: Record<string,
       reject(new Error(`upload server exited (${code ?? signal}):\n${out}`));
     });
   });
+  // a server that dies on its own (not killed by a test) says why, so a failure that follows can be read
+  child.once("exit", (code, signal) => {
+    if (signal !== "SIGKILL" && signal !== "SIGTERM") console.error(`[upload server exited by itself (${code ?? signal})]\n${out.slice(-6000)}`);
+  });
   return { child, output: () => out };
 }
