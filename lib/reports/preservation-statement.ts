@@ -1,5 +1,5 @@
 // How Cairn keeps originals, in the words a report prints. Each sentence states something the code
-// does (lib/storage/local-store.ts, lib/custody/*), so the report never promises more than is true.
+// does (lib/storage/*, lib/custody/*), so the report never promises more than is true.
 export const PRESERVATION_STATEMENT: readonly string[] = [
   "Every recording listed in this report was received byte for byte as it left the recorder. Its SHA-256 digest was computed while the bytes arrived and is printed beside it here.",
   "Originals are stored write-once under a name derived from the recording's identifier, made read-only once in place, and never modified. Playable videos, thumbnails and stills are separate derived files; making them only reads the original.",

@@ -31,6 +31,7 @@ import {
 import { Upload } from "@aws-sdk/lib-storage";
 import { AlreadyStored, type ByteRange, type ObjectStore, type StoredObject } from "./object-store";
 import { scratchFile } from "./scratch";
+import { assertStoreKey } from "./storage-keys";
 
 export type S3StoreOptions = {
   bucket: string;
@@ -74,7 +75,7 @@ export class S3Store implements ObjectStore {
   }
 
   private objectKey(key: string): string {
-    if (!key || key.startsWith("/") || key.split("/").some((part) => part === ".." || part === "." || part === "")) throw new Error("key outside the store");
+    assertStoreKey(key);
     return this.opts.keyPrefix ? `${this.opts.keyPrefix}/${key}` : key;
   }
 

@@ -1,5 +1,5 @@
 // Every key of the store, built here and nowhere else. A key is a relative path below the storage
-// folder (lib/storage/local-store.ts turns it into a file path), made of ids only, never of a file
+// folder (lib/storage/disk-store.ts turns it into a file path, lib/storage/s3-store.ts into an object name), made of ids only, never of a file
 // name a user typed, so it cannot leave the store or collide with another organisation's files.
 //
 //   originals/<org>/<first 2 characters of the recording id>/<recording id>   write-once originals

@@ -14,28 +14,30 @@ let current: ObjectStore | null = null;
 export function objectStore(): ObjectStore {
   if (current) return current;
   const e = env();
-  if (e.STORAGE_BACKEND === "s3") {
-    current = new S3Store({
-      bucket: e.S3_BUCKET,
-      keyPrefix: e.S3_KEY_PREFIX,
-      client: {
-        region: e.S3_REGION,
-        endpoint: e.S3_ENDPOINT,
-        // a local or self-hosted server is reached as endpoint/bucket/key, not bucket.endpoint/key
-        forcePathStyle: e.S3_FORCE_PATH_STYLE ? e.S3_FORCE_PATH_STYLE === "true" : Boolean(e.S3_ENDPOINT),
-        credentials: e.S3_ACCESS_KEY_ID && e.S3_SECRET_ACCESS_KEY ? { accessKeyId: e.S3_ACCESS_KEY_ID, secretAccessKey: e.S3_SECRET_ACCESS_KEY } : undefined,
-        // checksums only where S3 requires them: many S3-compatible servers (s3rver among them) do
-        // not understand the SDK's default streaming checksum trailers; integrity is checked by
-        // Cairn's own SHA-256 of every file instead
-        requestChecksumCalculation: "WHEN_REQUIRED",
-        responseChecksumValidation: "WHEN_REQUIRED",
-        maxAttempts: 5,
-      },
-    });
-  } else {
-    current = new DiskStore(e.storageDir);
-  }
+  current = e.STORAGE_BACKEND === "s3" ? s3StoreFromSettings() : new DiskStore(e.storageDir);
   return current;
+}
+
+/** An S3 store with the configured bucket and client settings; `keyPrefix` overrides S3_KEY_PREFIX. */
+export function s3StoreFromSettings(keyPrefix?: string): S3Store {
+  const e = env();
+  return new S3Store({
+    bucket: e.S3_BUCKET,
+    keyPrefix: keyPrefix ?? e.S3_KEY_PREFIX,
+    client: {
+      region: e.S3_REGION,
+      endpoint: e.S3_ENDPOINT,
+      // a local or self-hosted server is reached as endpoint/bucket/key, not bucket.endpoint/key
+      forcePathStyle: e.S3_FORCE_PATH_STYLE ? e.S3_FORCE_PATH_STYLE === "true" : Boolean(e.S3_ENDPOINT),
+      credentials: e.S3_ACCESS_KEY_ID && e.S3_SECRET_ACCESS_KEY ? { accessKeyId: e.S3_ACCESS_KEY_ID, secretAccessKey: e.S3_SECRET_ACCESS_KEY } : undefined,
+      // checksums only where S3 requires them: many S3-compatible servers (s3rver among them) do
+      // not understand the SDK's default streaming checksum trailers; integrity is checked by
+      // Cairn's own SHA-256 of every file instead
+      requestChecksumCalculation: "WHEN_REQUIRED",
+      responseChecksumValidation: "WHEN_REQUIRED",
+      maxAttempts: 5,
+    },
+  });
 }
 
 /** Forgets the chosen store (tests that switch STORAGE_BACKEND). */

@@ -1,5 +1,5 @@
 // Imports a flight track as evidence: parsed first (a refusal stores nothing), then the exact bytes are
-// placed write-once in the store (lib/storage/local-store.ts), then the row and its custody event are
+// placed write-once in the store (lib/storage/store.ts), then the row and its custody event are
 // written in one transaction. If that transaction fails, the placed file is removed again: nothing is
 // ever half-saved.
 import "server-only";

@@ -8,7 +8,7 @@ import os from "node:os";
 import path from "node:path";
 import { env } from "@/lib/config/env";
 import { DiskStore } from "@/lib/storage/disk-store";
-import { S3Store } from "@/lib/storage/s3-store";
+import { s3StoreFromSettings } from "@/lib/storage/store";
 import { AlreadyStored, type ObjectStore } from "@/lib/storage/object-store";
 
 const sha = (b: Buffer) => createHash("sha256").update(b).digest("hex");
@@ -19,19 +19,8 @@ async function collect(stream: NodeJS.ReadableStream): Promise<Buffer> {
 }
 
 let work: string;
-const s3 = () =>
-  new S3Store({
-    bucket: env().S3_BUCKET,
-    keyPrefix: `contract-${process.pid}`,
-    client: {
-      endpoint: env().S3_ENDPOINT,
-      region: "us-east-1",
-      forcePathStyle: true,
-      credentials: { accessKeyId: env().S3_ACCESS_KEY_ID!, secretAccessKey: env().S3_SECRET_ACCESS_KEY! },
-      requestChecksumCalculation: "WHEN_REQUIRED",
-      responseChecksumValidation: "WHEN_REQUIRED",
-    },
-  });
+// the configured S3 store's own settings (the local S3 server in the tests), below a prefix of this run
+const s3 = () => s3StoreFromSettings(`contract-${process.pid}`);
 
 beforeAll(async () => {
   work = await mkdtemp(path.join(os.tmpdir(), "cairn-contract-"));
