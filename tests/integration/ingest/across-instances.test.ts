@@ -32,16 +32,26 @@ let target: Target;
 let pilot: Record<string, string>;
 let a: ServerProcess;
 let b: ServerProcess;
+// every server started, killed at the end even when a start beside it failed
+const started: ServerProcess[] = [];
+const start = async (port: number) => {
+  const p = await startUploadServerProcess(port);
+  started.push(p);
+  return p;
+};
 
 beforeAll(async () => {
   actors = await demoActors();
   const flight = await makeFlight(actors.pilot!.organisationId);
   target = { jobId: flight.jobId, flightId: flight.id };
   pilot = await cookieOf(actors.pilot);
-  [a, b] = await Promise.all([startUploadServerProcess(PORT_A), startUploadServerProcess(PORT_B)]);
+  const [sa, sb] = await Promise.allSettled([start(PORT_A), start(PORT_B)]);
+  if (sa.status === "rejected") throw sa.reason;
+  if (sb.status === "rejected") throw sb.reason;
+  [a, b] = [sa.value, sb.value];
 });
 afterAll(async () => {
-  for (const p of [a, b]) p?.child.kill("SIGKILL");
+  for (const p of started) p.child.kill("SIGKILL");
   await closeQueues();
   await closeDb();
   await closeRedis();
@@ -71,7 +81,7 @@ describe("an upload across two web instances", () => {
     expect(await storedSha256(row.storageKey!)).toBe(reference);
     const events = await db().select().from(custodyEvents).where(and(eq(custodyEvents.evidenceId, row.id), eq(custodyEvents.eventType, "upload")));
     expect(events).toHaveLength(1);
-    a = await startUploadServerProcess(PORT_A); // for the next test
+    a = await start(PORT_A); // for the next test
   }, 300_000);
 
   it("written through both instances at once: the first writer keeps the lock, the second is refused, the original is the first body whole", async () => {
