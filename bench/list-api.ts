@@ -15,7 +15,7 @@
 // Cairn's p95 at 10,000 recordings over its p95 at 100 (target <= 1.5x).
 //
 //   CAIRN_TEST_SLOT=6 NEXT_DIST_DIR=.next-test-6 npx next build
-//   CAIRN_TEST_SLOT=6 npx tsx bench/list-api.ts [--seconds 10] [--custody 1000000]
+//   CAIRN_TEST_SLOT=6 npx tsx bench/list-api.ts [--seconds 10] [--custody 1000000] [--show-sql [--only-sql]]
 import { spawn, type ChildProcess } from "node:child_process";
 import { existsSync, mkdirSync, readFileSync, writeFileSync } from "node:fs";
 import http from "node:http";
@@ -108,7 +108,8 @@ async function main() {
       stop();
     }
     // postgres.js may report a statement twice (describe, then execute): keep each once, in order
-    const unique = sent.filter((q, i) => !sent.slice(0, i).some((p) => p.query === q.query && JSON.stringify(p.parameters) === JSON.stringify(q.parameters)));
+    // postgres.js's own type look-up when a connection opens is not part of the answer
+    const unique = sent.filter((q, i) => !/pg_catalog\.pg_type/.test(q.query) && !sent.slice(0, i).some((p) => p.query === q.query && JSON.stringify(p.parameters) === JSON.stringify(q.parameters)));
     return { sql: unique, status };
   }
 
@@ -142,6 +143,22 @@ async function main() {
     orgs.push({ size, organisationId, ownerUserId, jobId: job.id, recordingId: rec.id, cookie, endpoints });
   }
   await closeDb();
+  if (process.argv.includes("--show-sql")) {
+    // each statement with its plan's execution time (EXPLAIN ANALYZE, run once warm)
+    const explainSql = postgres(TEST_ENV.DATABASE_URL, { max: 1, onnotice: () => {} });
+    for (const o of orgs)
+      for (const e of o.endpoints) {
+        console.log(`-- ${e.name} (${o.size})`);
+        for (const q of e.sql) {
+          await explainSql.unsafe(q.query, q.parameters as never[]);
+          const plan = await explainSql.unsafe(`explain (analyze, format json) ${q.query}`, q.parameters as never[]);
+          const ms = (plan[0]["QUERY PLAN"] as { "Execution Time": number }[])[0]["Execution Time"];
+          console.log(`${ms.toFixed(2).padStart(8)} ms  ${q.query.replace(/\s+/g, " ").slice(0, 150)}`);
+        }
+      }
+    await explainSql.end();
+    if (process.argv.includes("--only-sql")) return;
+  }
 
   // the bare server: same SQL, same pool size, rows as JSON, no framework, no session
   const bareSql = postgres(TEST_ENV.DATABASE_URL, { max: 10, onnotice: () => {} });

@@ -2,6 +2,7 @@
 // A link to a job's custody log (its own page, /custody/jobs/:id) with the number of events and the
 // newest one, instead of the whole log on the job's page.
 // Embed: <CustodyLogLink jobId={id} /> (custody.read).
+import { countPhrase } from "@/components/ui/count-phrase";
 import Link from "next/link";
 import { useQuery } from "@tanstack/react-query";
 import { fetchJson } from "@/components/fetch-json";
@@ -11,7 +12,7 @@ import { custodyEventLabel, describeCustodySubject } from "./custody-event-label
 export function CustodyLogLink({ jobId }: { jobId: string }) {
   const latest = useQuery({
     queryKey: ["custody", `jobId=${jobId}&pageSize=1`],
-    queryFn: () => fetchJson<{ items: CustodyListItem[]; total: number }>(`/api/custody?jobId=${jobId}&pageSize=1`),
+    queryFn: () => fetchJson<{ items: CustodyListItem[]; total: number; totalIsLowerBound?: boolean }>(`/api/custody?jobId=${jobId}&pageSize=1`),
   });
   const newest = latest.data?.items[0];
   return (
@@ -25,7 +26,7 @@ export function CustodyLogLink({ jobId }: { jobId: string }) {
           : latest.error
             ? latest.error.message
             : latest.data && latest.data.total > 0 && newest
-              ? `${latest.data.total.toLocaleString("en-US")} ${latest.data.total === 1 ? "event" : "events"}; the newest: ${custodyEventLabel(newest.eventType)}, ${describeCustodySubject(newest)}, ${newest.occurredAt.slice(0, 16).replace("T", " ")} UTC.`
+              ? `${countPhrase(latest.data, "event", "events")}; the newest: ${custodyEventLabel(newest.eventType)}, ${describeCustodySubject(newest)}, ${newest.occurredAt.slice(0, 16).replace("T", " ")} UTC.`
               : "No custody events yet."}
       </p>
     </div>

@@ -20,7 +20,7 @@ import { CustodyChainCheck } from "./custody-chain-check";
 /** Events per page (the API serves at most 200). */
 export const CUSTODY_PAGE_SIZE = 50;
 
-type Answer = { items: CustodyListItem[]; total: number; nextCursor: string | null };
+type Answer = { items: CustodyListItem[]; total: number; totalIsLowerBound?: boolean; nextCursor: string | null };
 type Choices = { people: { userId: string; name: string; role: string }[]; recordings: { id: string; name: string; createdAt: string }[] };
 type Filters = { eventType: string; actor: string; from: string; to: string; order: "newest" | "oldest"; recordingId: string };
 
@@ -239,7 +239,7 @@ export function CustodyLogPanel({ recordingId, jobId }: { recordingId?: string; 
           </button>
         )}
         <span className="ml-auto text-sm text-ink-2" aria-live="polite" data-testid="custody-count">
-          {list.isFetching ? "Loading…" : data ? (data.total === 0 ? "No events" : `Events ${first.toLocaleString("en-US")}–${last.toLocaleString("en-US")} of ${data.total.toLocaleString("en-US")}`) : ""}
+          {list.isFetching ? "Loading…" : data ? (data.total === 0 ? "No events" : `Events ${first.toLocaleString("en-US")}–${last.toLocaleString("en-US")} of ${data.totalIsLowerBound ? "at least " : ""}${data.total.toLocaleString("en-US")}`) : ""}
         </span>
       </form>
 

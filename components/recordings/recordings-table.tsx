@@ -4,6 +4,7 @@
 // processed), hash, tags (add/remove), and the original's download. Filters and sorting run on
 // the server (GET /api/recordings). On a narrow screen name and state stay in the row; the rest
 // moves into the row's details (DataTable in components/ui/resource-table.tsx).
+import { countPhrase } from "@/components/ui/count-phrase";
 import { keepPreviousData, useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
 import Link from "next/link";
 import { useState } from "react";
@@ -173,7 +174,7 @@ export function RecordingsTable({
   const key = ["recordings", params.toString()];
   const query = useQuery({
     queryKey: key,
-    queryFn: () => fetchJson<{ items: RecordingRow[]; total: number }>(`/api/recordings?${params}`),
+    queryFn: () => fetchJson<{ items: RecordingRow[]; total: number; totalIsLowerBound?: boolean; nextCursor?: string | null }>(`/api/recordings?${params}`),
     placeholderData: keepPreviousData,
     refetchInterval: (qr) => (qr.state.data?.items.some((r) => r.state === "waiting" || r.state === "processing") ? LIVE_REFRESH_MS : false),
   });
@@ -299,7 +300,7 @@ export function RecordingsTable({
           />
         </label>
         <span className="ml-auto text-sm text-ink-2" aria-live="polite">
-          {query.isFetching && !query.data ? "Loading…" : `${total} ${total === 1 ? "recording" : "recordings"}`}
+          {query.isFetching && !query.data ? "Loading…" : countPhrase({ total, totalIsLowerBound: query.data?.totalIsLowerBound }, "recording", "recordings")}
         </span>
       </div>
       {query.isError ? (
@@ -326,7 +327,14 @@ export function RecordingsTable({
           noMatch="No recording matches these filters."
         />
       )}
-      <Pager page={page} pages={Math.max(1, Math.ceil(total / pageSize))} onPage={setPage} of="recordings" />
+      <Pager
+        page={page}
+        pages={Math.max(1, Math.ceil(total / pageSize))}
+        onPage={setPage}
+        of="recordings"
+        atLeast={query.data?.totalIsLowerBound}
+        more={query.data ? query.data.nextCursor != null : undefined}
+      />
     </div>
   );
 }

@@ -7,13 +7,14 @@
 // "Details" button (aria-expanded) that opens a row underneath listing the hidden columns as label and
 // value. Key columns carry no hideBelow and always stay. `DataTable` is the same table over rows the
 // caller already holds (share links, views, invitations) or fetches with its own filters (recordings).
+import { countPhrase } from "@/components/ui/count-phrase";
 import { useQuery, keepPreviousData } from "@tanstack/react-query";
 import { flexRender, getCoreRowModel, useReactTable, type ColumnDef, type OnChangeFn, type Row, type RowData, type SortingState } from "@tanstack/react-table";
 import { Fragment, useId, useState } from "react";
 import { EmptyState } from "./empty-state";
 import { fetchJson } from "@/components/fetch-json";
 
-export type ListResult<T> = { items: T[]; total: number };
+export type ListResult<T> = { items: T[]; total: number; totalIsLowerBound?: boolean; nextCursor?: string | null };
 export type Breakpoint = "sm" | "md" | "lg" | "xl" | "2xl";
 
 declare module "@tanstack/react-table" {
@@ -194,9 +195,13 @@ export function DataTable<T>({
   );
 }
 
-/** Previous / next under a paged list. */
-export function Pager({ page, pages, onPage, of }: { page: number; pages: number; onPage: (p: number) => void; of?: string }) {
-  if (pages <= 1) return null;
+/**
+ * Previous / next under a paged list. `more` is the list's own word that a page follows this one (its
+ * `nextCursor`); it matters when the count is only a lower bound, so `pages` may be short of the end.
+ */
+export function Pager({ page, pages, onPage, of, atLeast = false, more }: { page: number; pages: number; onPage: (p: number) => void; of?: string; atLeast?: boolean; more?: boolean }) {
+  const hasNext = more ?? page < pages;
+  if (pages <= 1 && !hasNext && page <= 1) return null;
   return (
     // one page can hold several paged lists: each navigation landmark gets its own name
     <nav className="flex items-center gap-2 text-sm" aria-label={of ? `Pages of ${of.toLowerCase()}` : "Pages"}>
@@ -204,9 +209,9 @@ export function Pager({ page, pages, onPage, of }: { page: number; pages: number
         Previous
       </button>
       <span className="tabular">
-        Page {page} of {pages}
+        Page {page} of {atLeast ? `at least ${Math.max(pages, page).toLocaleString("en-US")}` : pages}
       </span>
-      <button type="button" className="min-h-9 rounded border border-line px-3 py-1 disabled:opacity-40" disabled={page >= pages} onClick={() => onPage(page + 1)}>
+      <button type="button" className="min-h-9 rounded border border-line px-3 py-1 disabled:opacity-40" disabled={!hasNext} onClick={() => onPage(page + 1)}>
         Next
       </button>
     </nav>
@@ -281,7 +286,7 @@ export function ResourceTable<T>({
           </label>
         )}
         <span className="ml-auto text-sm text-ink-2" aria-live="polite">
-          {query.isFetching ? "Loading…" : `${total} ${total === 1 ? "row" : "rows"}`}
+          {query.isFetching ? "Loading…" : countPhrase({ total, totalIsLowerBound: query.data?.totalIsLowerBound }, "row", "rows")}
         </span>
       </div>
       {query.isError ? (
@@ -305,7 +310,7 @@ export function ResourceTable<T>({
           noMatch={<>Nothing matches “{q}”.</>}
         />
       )}
-      <Pager page={page} pages={pages} onPage={setPage} of={caption ?? searchLabel} />
+      <Pager page={page} pages={pages} onPage={setPage} of={caption ?? searchLabel} atLeast={query.data?.totalIsLowerBound} more={query.data ? query.data.nextCursor != null : undefined} />
     </div>
   );
 }

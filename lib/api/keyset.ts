@@ -5,7 +5,10 @@
 // positions the list, and every query keeps its organisation filter. A cursor that is garbled, forged
 // or made for another ordering is a 422 before any SQL runs (each value is checked against its key's
 // type here, so PostgreSQL never sees a value it would refuse with an error, i.e. a 500).
-import { and, isNull, or, sql, type AnyColumn, type SQL } from "drizzle-orm";
+import "server-only";
+import { and, count, isNull, or, sql, type AnyColumn, type SQL } from "drizzle-orm";
+import type { PgSelect } from "drizzle-orm/pg-core";
+import { db } from "@/db/client";
 import { z } from "zod";
 import { ApiError } from "./errors";
 import { MAX_CURSOR_CHARS, MAX_PAGE_SIZE, cursorParam, cursorText, keysetParams, type KeysetParams } from "@/lib/validation/page-params";
@@ -183,3 +186,20 @@ export function afterCursor(cursor: string | undefined, ordering: string, keys: 
 
 /** `cursor` and `pageSize` for a list that has no search or sort of its own (a recording's views, a job's share links). */
 
+
+/**
+ * Lists count their rows only up to COUNT_CAP: an exact count(*) walks every matching row, so it grows
+ * with the data while the keyset page does not (bench/list-api.ts measured 63 ms for one count over an
+ * organisation's 1,000,000 custody events, against 0.05 ms for its page). Beyond the cap the answer
+ * says `totalIsLowerBound: true` and the pages show "at least" the figure.
+ */
+export const COUNT_CAP = 1000;
+
+export type ListTotal = { total: number; totalIsLowerBound: boolean };
+
+/** Counts the rows `rows` selects (its FROM, joins and WHERE; the select list is not read), up to COUNT_CAP. */
+export async function countUpTo(rows: PgSelect): Promise<ListTotal> {
+  const capped = rows.limit(COUNT_CAP + 1).as("capped_rows");
+  const [{ n }] = await db().select({ n: count() }).from(capped);
+  return { total: Math.min(n, COUNT_CAP), totalIsLowerBound: n > COUNT_CAP };
+}

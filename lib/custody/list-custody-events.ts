@@ -3,11 +3,12 @@
 // a job's trail holds every event filed under the job. The list pages by keyset and filters by kind of
 // event, person and date. Nothing here writes.
 import "server-only";
-import { and, asc, count, desc, eq, gt, gte, inArray, isNotNull, isNull, lt, or, sql, type SQL } from "drizzle-orm";
+import { and, asc, desc, eq, gt, gte, inArray, isNotNull, isNull, lt, or, sql, type SQL } from "drizzle-orm";
 import { db } from "@/db/client";
 import { custodyEvents, findings, jobs, memberships, recordings, renditions, stills, users } from "@/db/schema";
 import type { CustodyEventType } from "./record-custody-event";
 import { notFound } from "@/lib/api/errors";
+import { countUpTo, type ListTotal } from "@/lib/api/keyset";
 
 export type CustodyTrailFilter = { recordingId?: string; jobId?: string };
 
@@ -99,17 +100,17 @@ const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
  * otherwise. Keyset paging on the chain position `seq` (unique per organisation): `cursor` is the seq
  * of the previous page's last event, and the next page is the events strictly beyond it, so a deep page
  * costs what the first does and events appended meanwhile never shift a page. `total` counts the
- * filtered events; `nextCursor` is null on the last page.
+ * filtered events up to COUNT_CAP (lib/api/keyset.ts); `nextCursor` is null on the last page.
  */
 export async function listCustodyEvents(
   organisationId: string,
   filter: CustodyListFilter,
   opts: { order?: CustodyOrder; cursor?: number; pageSize?: number } = {},
-): Promise<{ items: CustodyListItem[]; total: number; nextCursor: string | null }> {
+): Promise<{ items: CustodyListItem[]; nextCursor: string | null } & ListTotal> {
   const order = opts.order ?? "newest";
   const pageSize = Math.min(Math.max(1, opts.pageSize ?? CUSTODY_PAGE_SIZE_DEFAULT), CUSTODY_PAGE_SIZE_MAX);
   const where = and(await trailCondition(organisationId, filter), narrowing(filter))!;
-  const [{ total }] = await db().select({ total: count() }).from(custodyEvents).where(where);
+  const counted = await countUpTo(db().select({ one: sql`1` }).from(custodyEvents).where(where).$dynamic());
   const beyond = opts.cursor === undefined ? undefined : order === "newest" ? lt(custodyEvents.seq, opts.cursor) : gt(custodyEvents.seq, opts.cursor);
   const rows = await db()
     .select({
@@ -165,7 +166,7 @@ export async function listCustodyEvents(
     };
   });
   const nextCursor = rows.length > pageSize ? String(page[page.length - 1].seq) : null;
-  return { items, total, nextCursor };
+  return { items, ...counted, nextCursor };
 }
 
 /** The people a custody log can be filtered by: the organisation's members (former members still show in the log by their role). */

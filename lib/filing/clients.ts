@@ -1,11 +1,11 @@
 // Clients of the organisation: list, read, create, update, archive.
 import "server-only";
-import { and, count, eq, type SQL } from "drizzle-orm";
+import { and, count, eq, type SQL, sql } from "drizzle-orm";
 import { db } from "@/db/client";
 import { clients, sites } from "@/db/schema";
 import { notFound } from "@/lib/api/errors";
 import { keysetOf, keysetPage, listWhere, type ListParams } from "@/lib/api/list";
-import { afterCursor, keysetColumns, keysetOrder, pageOfRows } from "@/lib/api/keyset";
+import { afterCursor, keysetColumns, keysetOrder, pageOfRows, countUpTo } from "@/lib/api/keyset";
 import type { ClientInput } from "@/lib/validation/work";
 
 const columns = {
@@ -33,7 +33,7 @@ export async function listClients(orgId: string, params: ListParams, scope?: SQL
     clients.id,
   );
   const page = keysetPage(params);
-  const [rows, [{ total }]] = await Promise.all([
+  const [rows, counted] = await Promise.all([
     db()
       .select({ ...columns, siteCount: db().$count(sites, and(eq(sites.clientId, clients.id), eq(sites.organisationId, orgId))), ...keysetColumns(keys) })
       .from(clients)
@@ -41,9 +41,9 @@ export async function listClients(orgId: string, params: ListParams, scope?: SQL
       .orderBy(...keysetOrder(keys))
       .limit(page.limit)
       .offset(page.offset),
-    db().select({ total: count() }).from(clients).where(where),
+    countUpTo(db().select({ one: sql`1` }).from(clients).where(where).$dynamic()),
   ]);
-  return { ...pageOfRows(rows, params.pageSize, ordering, keys), total };
+  return { ...pageOfRows(rows, params.pageSize, ordering, keys), ...counted };
 }
 
 export async function getClientOrThrow(orgId: string, id: string) {

@@ -1,12 +1,12 @@
 // Flights of the organisation: list, read, create, update, archive. A flight is one sortie flown for a job.
 import "server-only";
-import { and, count, eq, sql, type SQL } from "drizzle-orm";
+import { and, eq, sql, type SQL } from "drizzle-orm";
 import { alias } from "drizzle-orm/pg-core";
 import { db, type DbOrTx } from "@/db/client";
 import { clients, flights, jobs, sites, users } from "@/db/schema";
 import { ApiError, notFound } from "@/lib/api/errors";
 import { keysetOf, keysetPage, listWhere } from "@/lib/api/list";
-import { afterCursor, keysetColumns, keysetOrder, pageOfRows, type KeyPart } from "@/lib/api/keyset";
+import { afterCursor, keysetColumns, keysetOrder, pageOfRows, type KeyPart, countUpTo } from "@/lib/api/keyset";
 import type { Member } from "@/lib/auth/load-member";
 import { FLIGHT_LAUNCH_PAIR, coordinatePairIssue, type FlightInput, type FlightPatch } from "@/lib/validation/work";
 import type { FlightListQuery } from "@/lib/validation/list-filters";
@@ -87,7 +87,7 @@ export async function listFlights(orgId: string, params: FlightListQuery, scope?
     flights.id,
   );
   const page = keysetPage(params);
-  const [rows, [{ total }]] = await Promise.all([
+  const [rows, counted] = await Promise.all([
     db()
       .select({ ...columns, ...related, ...keysetColumns(keys) })
       .from(flights)
@@ -99,16 +99,19 @@ export async function listFlights(orgId: string, params: FlightListQuery, scope?
       .orderBy(...keysetOrder(keys))
       .limit(page.limit)
       .offset(page.offset),
-    db()
-      .select({ total: count() })
-      .from(flights)
-      .innerJoin(jobs, eq(jobs.id, flights.jobId))
-      .innerJoin(sites, eq(sites.id, jobs.siteId))
-      .innerJoin(clients, eq(clients.id, sites.clientId))
-      .leftJoin(pilot, eq(pilot.id, flights.pilotId))
-      .where(where),
+    countUpTo(
+      db()
+        .select({ one: sql`1` })
+        .from(flights)
+        .innerJoin(jobs, eq(jobs.id, flights.jobId))
+        .innerJoin(sites, eq(sites.id, jobs.siteId))
+        .innerJoin(clients, eq(clients.id, sites.clientId))
+        .leftJoin(pilot, eq(pilot.id, flights.pilotId))
+        .where(where)
+        .$dynamic(),
+    ),
   ]);
-  return { ...pageOfRows(rows, params.pageSize, ordering, keys), total };
+  return { ...pageOfRows(rows, params.pageSize, ordering, keys), ...counted };
 }
 
 export async function getFlightOrThrow(orgId: string, id: string) {

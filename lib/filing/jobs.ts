@@ -7,7 +7,7 @@ import { db, type DbOrTx } from "@/db/client";
 import { clients, flights, jobStatusEnum, jobs, sites, users } from "@/db/schema";
 import { notFound } from "@/lib/api/errors";
 import { keysetOf, keysetPage, listWhere } from "@/lib/api/list";
-import { afterCursor, keysetColumns, keysetOrder, pageOfRows } from "@/lib/api/keyset";
+import { afterCursor, keysetColumns, keysetOrder, pageOfRows, countUpTo } from "@/lib/api/keyset";
 import type { JobInput, JobPatch } from "@/lib/validation/work";
 import type { JobListQuery } from "@/lib/validation/list-filters";
 import { requireCrewIn, requireSiteIn } from "./require-in-organisation";
@@ -75,7 +75,7 @@ export async function listJobs(orgId: string, params: JobListQuery, scope?: SQL)
     jobs.id,
   );
   const page = keysetPage(params);
-  const [rows, [{ total }]] = await Promise.all([
+  const [rows, counted] = await Promise.all([
     db()
       .select({
         ...columns,
@@ -93,9 +93,9 @@ export async function listJobs(orgId: string, params: JobListQuery, scope?: SQL)
       .limit(page.limit)
       .offset(page.offset),
     // the crew joins cannot change the count (one user per id); the search needs the site and client
-    db().select({ total: count() }).from(jobs).innerJoin(sites, eq(sites.id, jobs.siteId)).innerJoin(clients, eq(clients.id, sites.clientId)).where(where),
+    countUpTo(db().select({ one: sql`1` }).from(jobs).innerJoin(sites, eq(sites.id, jobs.siteId)).innerJoin(clients, eq(clients.id, sites.clientId)).where(where).$dynamic()),
   ]);
-  return { ...pageOfRows(rows, params.pageSize, ordering, keys), total };
+  return { ...pageOfRows(rows, params.pageSize, ordering, keys), ...counted };
 }
 
 export async function getJobOrThrow(orgId: string, id: string) {

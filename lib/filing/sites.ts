@@ -5,7 +5,7 @@ import { db } from "@/db/client";
 import { assetKindEnum, clients, jobs, sites } from "@/db/schema";
 import { ApiError, notFound } from "@/lib/api/errors";
 import { keysetOf, keysetPage, listWhere } from "@/lib/api/list";
-import { afterCursor, keysetColumns, keysetOrder, pageOfRows } from "@/lib/api/keyset";
+import { afterCursor, keysetColumns, keysetOrder, pageOfRows, countUpTo } from "@/lib/api/keyset";
 import { coordinatePairIssue, type SiteInput, type SitePatch } from "@/lib/validation/work";
 import type { SiteListQuery } from "@/lib/validation/list-filters";
 import { requireClientIn } from "./require-in-organisation";
@@ -51,7 +51,7 @@ export async function listSites(orgId: string, params: SiteListQuery, scope?: SQ
     sites.id,
   );
   const page = keysetPage(params);
-  const [rows, [{ total }]] = await Promise.all([
+  const [rows, counted] = await Promise.all([
     db()
       .select({
         ...columns,
@@ -65,9 +65,9 @@ export async function listSites(orgId: string, params: SiteListQuery, scope?: SQ
       .orderBy(...keysetOrder(keys))
       .limit(page.limit)
       .offset(page.offset),
-    db().select({ total: count() }).from(sites).innerJoin(clients, eq(clients.id, sites.clientId)).where(where),
+    countUpTo(db().select({ one: sql`1` }).from(sites).innerJoin(clients, eq(clients.id, sites.clientId)).where(where).$dynamic()),
   ]);
-  return { ...pageOfRows(rows, params.pageSize, ordering, keys), total };
+  return { ...pageOfRows(rows, params.pageSize, ordering, keys), ...counted };
 }
 export async function getSiteOrThrow(orgId: string, id: string) {
   const [row] = await db()

@@ -1,8 +1,8 @@
 // What the API and pages show of a finding: its own columns, the category and author names, the
 // recording's name and original hash, and its newest still. Never the whole row (DEVELOPERS.md, "Data").
 import "server-only";
-import { and, count, desc, eq, inArray, isNull, type SQL } from "drizzle-orm";
-import { afterCursor, keysetColumns, keysetOrder, pageOfRows, type KeyPart, type KeysetParams } from "@/lib/api/keyset";
+import { and, desc, eq, inArray, isNull, type SQL, sql } from "drizzle-orm";
+import { afterCursor, keysetColumns, keysetOrder, pageOfRows, type KeyPart, type KeysetParams, countUpTo } from "@/lib/api/keyset";
 import { db, type DbOrTx } from "@/db/client";
 import { findingCategories, findings, recordings, stills, users } from "@/db/schema";
 import type { FrameBox } from "@/db/schema/review";
@@ -82,15 +82,18 @@ export async function loadFindingViews(organisationId: string, where: SQL | unde
 /** One keyset page of loadFindingViews's list, with the count of all of it (the findings API). */
 export async function listFindingViews(organisationId: string, where: SQL | undefined, page: KeysetParams) {
   const all = and(eq(findings.organisationId, organisationId), isNull(findings.deletedAt), where);
-  const [result, [{ total }]] = await Promise.all([pageFindingViews(organisationId, where, page), db().select({ total: count() }).from(findings).where(all)]);
-  return { ...result, total };
+  const [result, counted] = await Promise.all([pageFindingViews(organisationId, where, page), countUpTo(db().select({ one: sql`1` }).from(findings).where(all).$dynamic())]);
+  return { ...result, ...counted };
 }
 
 async function pageFindingViews(organisationId: string, where: SQL | undefined, page: KeysetParams | undefined, tx: DbOrTx = db()) {
   const query = tx
     .select({ ...columns, ...keysetColumns(KEYS) })
     .from(findings)
-    .innerJoin(recordings, eq(recordings.id, findings.recordingId))
+    // the organisation and job are repeated on the join (a finding is always filed under its
+    // recording's job): the planner then walks the job's recordings in order through
+    // recordings_org_job_idx and stops after one page, instead of hashing every recording
+    .innerJoin(recordings, and(eq(recordings.id, findings.recordingId), eq(recordings.organisationId, findings.organisationId), eq(recordings.jobId, findings.jobId)))
     .leftJoin(findingCategories, eq(findingCategories.id, findings.categoryId))
     .leftJoin(users, eq(users.id, findings.createdBy))
     .where(and(eq(findings.organisationId, organisationId), isNull(findings.deletedAt), where, afterCursor(page?.cursor, "default", KEYS)))

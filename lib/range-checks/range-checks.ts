@@ -1,13 +1,13 @@
 // Range checks of the organisation's flights: list, read, create, edit, archive. The slant range and
 // the derived half of the position are always computed here, on the server, from the stored inputs.
 import "server-only";
-import { and, count, eq, isNull, type SQL } from "drizzle-orm";
+import { and, eq, isNull, type SQL, sql } from "drizzle-orm";
 import { db } from "@/db/client";
 import { flights, linkEventEnum, rangeChecks, recordings } from "@/db/schema";
 import type { SelectedFields } from "drizzle-orm/pg-core";
 import { ApiError, notFound } from "@/lib/api/errors";
 import { keysetOf, keysetPage, listWhere, type ListParams } from "@/lib/api/list";
-import { afterCursor, keysetColumns, keysetOrder, pageOfRows } from "@/lib/api/keyset";
+import { afterCursor, keysetColumns, keysetOrder, pageOfRows, countUpTo } from "@/lib/api/keyset";
 import type { Member } from "@/lib/auth/load-member";
 import { GeoInputError, fromMetres } from "@/lib/geo";
 import { rangeCheckValuesInput, type DisplayUnits, type RangeCheckCreateInput, type RangeCheckPatchInput, type RangeCheckValues } from "@/lib/validation/range-checks";
@@ -69,15 +69,15 @@ export async function listRangeChecks(orgId: string, params: RangeCheckListParam
     rangeChecks.id,
   );
   const page = keysetPage(params);
-  const [rows, [{ total }]] = await Promise.all([
+  const [rows, counted] = await Promise.all([
     selectRangeChecks(keysetColumns(keys))
       .where(and(where, afterCursor(params.cursor, ordering, keys)))
       .orderBy(...keysetOrder(keys))
       .limit(page.limit)
       .offset(page.offset),
-    db().select({ total: count() }).from(rangeChecks).where(where),
+    countUpTo(db().select({ one: sql`1` }).from(rangeChecks).where(where).$dynamic()),
   ]);
-  return { ...pageOfRows(rows, params.pageSize, ordering, keys), total };
+  return { ...pageOfRows(rows, params.pageSize, ordering, keys), ...counted };
 }
 
 export async function getRangeCheckOrThrow(orgId: string, id: string) {

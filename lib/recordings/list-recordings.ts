@@ -2,14 +2,14 @@
 // size, kind, duration when known, processing state and progress, hash and tags; filtered, sorted
 // and paged on the server by keyset (lib/api/keyset.ts).
 import "server-only";
-import { and, count, eq, exists, ilike, isNull, or, sql, type SQL } from "drizzle-orm";
+import { and, eq, exists, ilike, isNull, or, sql, type SQL } from "drizzle-orm";
 import { z } from "zod";
 import { db } from "@/db/client";
 import { flights, jobs, processingStateEnum, recordingKindEnum, recordingTags, recordings, tags, users } from "@/db/schema";
 import { listQuery } from "@/lib/api/with-org";
 import { safeText } from "@/lib/validation/common";
 import { keysetOf, keysetPage, type SortKey } from "@/lib/api/list";
-import { afterCursor, keysetColumns, keysetOrder, pageOfRows, type KeyPart } from "@/lib/api/keyset";
+import { afterCursor, keysetColumns, keysetOrder, pageOfRows, type KeyPart, countUpTo } from "@/lib/api/keyset";
 
 export const RECORDING_STATES = ["waiting", "processing", "ready", "failed"] as const;
 export const RECORDING_KINDS = ["raw_h264", "mp4", "mov", "jpeg"] as const;
@@ -99,7 +99,7 @@ export async function listRecordings(organisationId: string, q: RecordingListQue
   // the sequence order is the default; asked for explicitly it is the same keys
   const { ordering, keys } = q.sort === "sequence" && q.dir === "asc" ? { ordering: "default", keys: DEFAULT_KEYS } : keysetOf(q, SORTABLE, DEFAULT_KEYS, recordings.id);
   const page = keysetPage(q);
-  const [rows, [{ total }]] = await Promise.all([
+  const [rows, counted] = await Promise.all([
     db()
       .select({ ...recordingColumns, ...keysetColumns(keys) })
       .from(recordings)
@@ -111,7 +111,7 @@ export async function listRecordings(organisationId: string, q: RecordingListQue
       .limit(page.limit)
       .offset(page.offset),
     // counted apart from the page: the page's columns (tags, names) are computed for its rows only
-    db().select({ total: count() }).from(recordings).where(and(...where)),
+    countUpTo(db().select({ one: sql`1` }).from(recordings).where(and(...where)).$dynamic()),
   ]);
-  return { ...pageOfRows(rows, q.pageSize, ordering, keys), total };
+  return { ...pageOfRows(rows, q.pageSize, ordering, keys), ...counted };
 }

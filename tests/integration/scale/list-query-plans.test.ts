@@ -20,6 +20,8 @@ import { listJobShareLinks } from "@/lib/sharing/list-share-links";
 import { listPlaybackViews } from "@/lib/playback-analytics/list-playback-views";
 import { jobListQuery, flightListQuery, siteListQuery } from "@/lib/validation/list-filters";
 import { listQuery } from "@/lib/api/with-org";
+import { COUNT_CAP } from "@/lib/api/keyset";
+import { listCustodyEvents } from "@/lib/custody/list-custody-events";
 import { verifyOrganisationChain } from "@/lib/custody/verify-organisation-chain";
 import { eq } from "drizzle-orm";
 import { findings } from "@/db/schema";
@@ -31,6 +33,9 @@ import { TEST_ENV } from "@/tests/support/test-env";
 type PlanNode = { "Node Type": string; "Relation Name"?: string; "Index Name"?: string; Plans?: PlanNode[] };
 let seed: ScaleSeed;
 let admin: postgres.Sql;
+
+/** countUpTo's query: a count over the list's rows under a LIMIT (lib/api/keyset.ts) */
+const CAPPED_COUNT = /^select count\(\*\) from \(/i;
 
 function nodes(plan: PlanNode): PlanNode[] {
   return [plan, ...(plan.Plans ?? []).flatMap(nodes)];
@@ -45,8 +50,8 @@ async function planOfPage(table: string, call: () => Promise<unknown>, seqscanOf
   } finally {
     stop();
   }
-  // the page query is the one with a LIMIT (the count beside it has none)
-  const page = sent.filter((q) => new RegExp(`from "${table}"`).test(q.query) && /\blimit\b/i.test(q.query));
+  // the page query is the one with a LIMIT that is not the capped count beside it
+  const page = sent.filter((q) => new RegExp(`from "${table}"`).test(q.query) && /\blimit\b/i.test(q.query) && !CAPPED_COUNT.test(q.query));
   expect(page, `one page query on ${table}`).toHaveLength(1);
   const rows = await sqlClient().begin(async (tx) => {
     if (seqscanOff) await tx`set local enable_seqscan = off`;
@@ -103,6 +108,12 @@ describe("the page queries of the lists read an index (10,000 recordings, analys
     expectIndexOn(plan, "findings", ["findings_org_recording_frame_idx", "findings_org_recording_idx"]);
   });
 
+  it("findings of a job walk the job's recordings in order, not every recording", async () => {
+    const plan = await planOfPage("findings", () => listFindingViews(org(), eq(findings.jobId, seed.jobIds[4]), { pageSize: 50 }));
+    expectIndexOn(plan, "recordings", ["recordings_org_job_idx"]);
+    expectIndexOn(plan, "findings", ["findings_org_recording_frame_idx", "findings_org_recording_idx", "findings_org_job_idx"]);
+  });
+
   it("jobs and flights in their default orders", async () => {
     expectIndexOn(await planOfPage("jobs", () => listJobs(org(), jobListQuery.parse({})), true), "jobs", ["jobs_org_due_idx"]);
     expectIndexOn(await planOfPage("flights", () => listFlights(org(), flightListQuery.parse({}))), "flights", ["flights_org_date_idx"]);
@@ -114,6 +125,39 @@ describe("the page queries of the lists read an index (10,000 recordings, analys
     expectIndexOn(await planOfPage("sites", () => listSites(org(), siteListQuery.parse({})), true), "sites", ["sites_org_name_idx"]);
     expectIndexOn(await planOfPage("share_links", () => listJobShareLinks(org(), seed.jobIds[0], { pageSize: 100 }), true), "share_links", ["share_links_org_job_idx"]);
     expectIndexOn(await planOfPage("playback_views", () => listPlaybackViews(org(), seed.recordingIds[0], { pageSize: 200 }), true), "playback_views", ["playback_views_org_recording_idx"]);
+  });
+});
+
+describe("list counts stop at the cap (lib/api/keyset.ts COUNT_CAP)", () => {
+  /** The count query `call` sent, and its plan. */
+  async function countQuery(table: string, call: () => Promise<unknown>) {
+    const sent: { query: string; parameters: unknown[] }[] = [];
+    const stop = observeQueries((query, parameters) => sent.push({ query, parameters }));
+    try {
+      await call();
+    } finally {
+      stop();
+    }
+    const counts = sent.filter((q) => CAPPED_COUNT.test(q.query) && new RegExp(`from "${table}"`).test(q.query));
+    expect(counts.length, `a count of ${table}`).toBeGreaterThan(0);
+    const rows = await sqlClient().unsafe(`explain (format json) ${counts[0].query}`, counts[0].parameters as postgres.ParameterOrJSON<never>[]);
+    return nodes((rows[0] as unknown as { "QUERY PLAN": { Plan: PlanNode }[] })["QUERY PLAN"][0].Plan);
+  }
+
+  it("10,000 recordings count as at least COUNT_CAP, through a LIMIT; a flight's 10 count exactly", async () => {
+    const whole = await listRecordings(seed.organisationId, recordingListQuery.parse({ pageSize: "50" }));
+    expect(whole).toMatchObject({ total: COUNT_CAP, totalIsLowerBound: true });
+    const plan = await countQuery("recordings", () => listRecordings(seed.organisationId, recordingListQuery.parse({ pageSize: "50" })));
+    expect(plan.map((n) => n["Node Type"])).toContain("Limit");
+    const oneFlight = await listRecordings(seed.organisationId, recordingListQuery.parse({ flightId: seed.flightIds[3] }));
+    expect(oneFlight).toMatchObject({ total: 10, totalIsLowerBound: false });
+  });
+
+  it("20,000 custody events and a job's 200 findings", async () => {
+    expect(await listCustodyEvents(seed.organisationId, {}, { pageSize: 10 })).toMatchObject({ total: COUNT_CAP, totalIsLowerBound: true });
+    const [{ n }] = await admin`select count(*)::int as n from findings where organisation_id = ${seed.organisationId} and job_id = ${seed.jobIds[4]} and deleted_at is null`;
+    expect(n).toBeLessThan(COUNT_CAP);
+    expect(await listFindingViews(seed.organisationId, eq(findings.jobId, seed.jobIds[4]), { pageSize: 50 })).toMatchObject({ total: n, totalIsLowerBound: false });
   });
 });
 

@@ -37,7 +37,7 @@ describe("createOrganisation", () => {
     expect(await bcrypt.compare("a long enough password", u.passwordHash!)).toBe(true);
     // the new owner works in an empty organisation of their own
     const res = await clientsApi.GET(await req({ userId: owner.id, organisationId: organisation.id }, "GET", "/api/clients"));
-    expect(await res.json()).toEqual({ items: [], total: 0, nextCursor: null });
+    expect(await res.json()).toEqual({ items: [], total: 0, totalIsLowerBound: false, nextCursor: null });
   });
 
   it("a duplicate owner e-mail fails after the organisation row was inserted, and the organisation is rolled back", async () => {

@@ -74,7 +74,7 @@ describe("authorization matrix", () => {
 
   it("lists never show another organisation's flights, even when filtered by its job", async () => {
     const body = await (await list.GET(await req(actors.owner, "GET", `/api/flights?jobId=${otherOrgJobId}`))).json();
-    expect(body).toEqual({ items: [], total: 0, nextCursor: null });
+    expect(body).toEqual({ items: [], total: 0, totalIsLowerBound: false, nextCursor: null });
   });
 });
 
