@@ -14,10 +14,16 @@
 // Prints per endpoint and size: requests/s and p95 of both; Cairn/bare throughput (target >= 0.5x) and
 // Cairn's p95 at 10,000 recordings over its p95 at 100 (target <= 1.5x).
 //
+// While both servers are measured, --uploads N (default 5) tus uploads of --upload-mb MiB (default 200)
+// run through Cairn's own web process without pause, each a new file (a raw H.264 head and random
+// bytes), into a flight of the demo organisation; their recordings are removed at the end. Also printed:
+// Next's floor, the same endpoint asked without a session (401 before any SQL), which bounds what any
+// route handler of this build can answer on this machine.
+//
 //   CAIRN_TEST_SLOT=6 NEXT_DIST_DIR=.next-test-6 npx next build
-//   CAIRN_TEST_SLOT=6 npx tsx bench/list-api.ts [--seconds 10] [--custody 1000000] [--show-sql [--only-sql]]
+//   CAIRN_TEST_SLOT=6 npx tsx bench/list-api.ts [--seconds 10] [--custody 1000000] [--show-sql [--only-sql]] [--only "recording page"] [--uploads 5] [--upload-mb 200]
 import { spawn, type ChildProcess } from "node:child_process";
-import { existsSync, mkdirSync, readFileSync, writeFileSync } from "node:fs";
+import { existsSync, mkdirSync, openSync, readFileSync, writeFileSync } from "node:fs";
 import http from "node:http";
 import path from "node:path";
 import { E2E_PORT, TEST_ENV } from "@/tests/support/test-env";
@@ -54,6 +60,8 @@ async function waitFor(url: string, ms: number) {
 async function main() {
   Object.assign(process.env, TEST_ENV, { CAIRN_OBSERVE_QUERIES: "1" });
   const seconds = flag("seconds", 10);
+  const onlyAt = process.argv.indexOf("--only");
+  const only = onlyAt > 0 ? process.argv[onlyAt + 1] : null;
   if (!existsSync(path.join(root, TEST_ENV.NEXT_DIST_DIR, "BUILD_ID"))) throw new Error(`build first: CAIRN_TEST_SLOT=${process.env.CAIRN_TEST_SLOT ?? ""} NEXT_DIST_DIR=${TEST_ENV.NEXT_DIST_DIR} npx next build`);
   // autocannon ships no type declarations: the part used here, as its README describes it
   type Result = { requests: { average: number }; errors: number; timeouts: number; non2xx: number };
@@ -69,6 +77,10 @@ async function main() {
   const { sessionCookie } = await import("@/tests/support/session");
   const { loadMember } = await import("@/lib/auth/load-member");
   const { startSession } = await import("@/lib/auth/user-sessions");
+
+  // the slot's database may predate the newest migrations (the seed is kept between runs)
+  const { runMigrations } = await import("@/db/migrate");
+  await runMigrations(TEST_ENV.MIGRATION_DATABASE_URL, TEST_ENV.DATABASE_URL);
 
   // seed once, reuse later (the custody log is append-only: a fresh seed each run would only grow it)
   const seedFile = path.join(root, `.data/bench/list-api-seed-${process.env.CAIRN_TEST_SLOT ?? "0"}.json`);
@@ -180,13 +192,18 @@ async function main() {
   await new Promise<void>((r) => bare.listen(barePort, "127.0.0.1", r));
 
   mkdirSync(path.join(root, ".data/logs"), { recursive: true });
-  const web: ChildProcess = spawn(path.join(root, "node_modules/.bin/next"), ["start", "-p", String(E2E_PORT), "-H", "127.0.0.1"], {
+  const webLog = openSync(path.join(root, `.data/logs/list-api-web-${process.env.CAIRN_TEST_SLOT ?? "0"}.log`), "w");
+  // BENCH_WEB_NODE_ARGS: node flags for the web process only (for example "--cpu-prof --cpu-prof-dir=/tmp/prof")
+  const nodeArgs = (process.env.BENCH_WEB_NODE_ARGS ?? "").split(" ").filter(Boolean);
+  let uploads: Awaited<ReturnType<typeof startUploads>> | null = null;
+  const web: ChildProcess = spawn(process.execPath, [...nodeArgs, path.join(root, "node_modules/next/dist/bin/next"), "start", "-p", String(E2E_PORT), "-H", "127.0.0.1"], {
     cwd: root,
     env: { ...process.env, ...TEST_ENV, CAIRN_OBSERVE_QUERIES: "", PORT: String(E2E_PORT), NEXT_TELEMETRY_DISABLED: "1" },
-    stdio: "ignore",
+    stdio: ["ignore", webLog, webLog],
   });
   try {
     await waitFor(`http://127.0.0.1:${E2E_PORT}/sign-in`, 60_000);
+    uploads = await startUploads(flag("uploads", 5), flag("upload-mb", 200));
     const run = (url: string, headers: Record<string, string>, duration: number) =>
       new Promise<{ rps: number; p95: number; errors: number; non2xx: number }>((resolve, reject) => {
         const latencies: number[] = [];
@@ -200,6 +217,7 @@ async function main() {
     const rows: { endpoint: string; size: string; cairn: Awaited<ReturnType<typeof run>>; bare: Awaited<ReturnType<typeof run>> }[] = [];
     for (const [oi, org] of orgs.entries()) {
       for (const [ei, e] of org.endpoints.entries()) {
+        if (only && e.name !== only) continue;
         const cairnUrl = `http://127.0.0.1:${E2E_PORT}${e.url}`;
         const bareUrl = `http://127.0.0.1:${barePort}/${oi}/${ei}`;
         // warm both (Next compiles nothing at run time, but caches and the pool fill)
@@ -212,7 +230,16 @@ async function main() {
       }
     }
 
+    const floorUrl = `http://127.0.0.1:${E2E_PORT}${orgs[0].endpoints[0].url}`;
+    const floor = await run(floorUrl, {}, seconds);
+    const uploaded = uploads ? await uploads.stop() : null;
+
     console.log(`\nList API at ${CONNECTIONS} connections, ${seconds} s per run (small: 100 recordings, large: 10,000)`);
+    if (uploaded)
+      console.log(
+        `meanwhile ${uploaded.streams} uploads of ${uploaded.mib} MiB ran through Cairn's web process: ${uploaded.completed} completed, ${uploaded.failed} failed, ${uploaded.mibPerSec.toFixed(0)} MiB/s in all`,
+      );
+    console.log(`Next's floor (the recordings list without a session: 401, no SQL): ${floor.rps.toFixed(0)} req/s, p95 ${floor.p95.toFixed(0)} ms`);
     console.log("endpoint        size   Cairn req/s  p95 ms   bare req/s  p95 ms   Cairn/bare  non-2xx");
     for (const r of rows) {
       console.log(
@@ -220,7 +247,7 @@ async function main() {
       );
     }
     console.log("\nCairn p95, large over small (target <= 1.5x); Cairn/bare throughput at large (target >= 0.5x):");
-    for (const e of orgs[0].endpoints.map((x) => x.name)) {
+    for (const e of orgs[0].endpoints.map((x) => x.name).filter((x) => !only || x === only)) {
       const small = rows.find((r) => r.endpoint === e && r.size === "small")!;
       const large = rows.find((r) => r.endpoint === e && r.size === "large")!;
       const growth = large.cairn.p95 / small.cairn.p95;
@@ -228,10 +255,108 @@ async function main() {
       console.log(`${e.padEnd(15)} p95 ${growth.toFixed(2)}x ${growth <= 1.5 ? "ok" : "OVER"}   throughput ${ratio.toFixed(2)}x ${ratio >= 0.5 ? "ok" : "UNDER"}`);
     }
   } finally {
-    web.kill("SIGTERM");
+    if (uploads) await uploads.stop().catch(() => {});
+    web.kill("SIGINT"); // SIGINT lets --cpu-prof write its profile
     bare.close();
     await bareSql.end();
   }
+}
+
+/**
+ * `streams` tus uploaders, each uploading a new file of `mib` MiB to Cairn's web process again and again
+ * until stop(); stop() waits for the uploads in flight to end, then removes the recordings they made.
+ */
+async function startUploads(streams: number, mib: number) {
+  if (streams <= 0) return null;
+  const { open: openFile, mkdir: makeDir, readFile: read, stat: statFile } = await import("node:fs/promises");
+  const { createReadStream, createWriteStream } = await import("node:fs");
+  const { randomBytes } = await import("node:crypto");
+  const os = await import("node:os");
+  const tus = await import("tus-js-client");
+  const { db } = await import("@/db/client");
+  const s = await import("@/db/schema");
+  const { eq } = await import("drizzle-orm");
+  const { removeKey } = await import("@/lib/storage/store");
+  const { actorByEmail, sessionCookie } = await import("@/tests/support/session");
+  const { makeFlight } = await import("@/tests/support/factories");
+  const { makeRawH264 } = await import("@/tests/support/media/make-h264");
+  const { UPLOAD_CHUNK_BYTES } = await import("@/lib/uploads/upload-limits");
+
+  const pilot = await actorByEmail("pilot@kestrelmoor.example");
+  const flight = await makeFlight(pilot.organisationId, { aircraft: "bench" });
+  const cookie = await sessionCookie(pilot);
+  const size = mib * 1024 * 1024;
+  const dir = path.join(os.tmpdir(), "cairn-bench");
+  await makeDir(dir, { recursive: true });
+  const head = await read(await makeRawH264({ seconds: 2 }));
+  const files: string[] = [];
+  for (let i = 0; i < streams; i++) {
+    const file = path.join(dir, `list-api-upload-${i}-${mib}MiB.264`);
+    if ((await statFile(file).catch(() => null))?.size !== size) {
+      const ws = createWriteStream(file);
+      ws.write(head);
+      for (let left = size - head.length; left > 0; ) {
+        const n = Math.min(left, 8 * 1024 * 1024);
+        if (!ws.write(randomBytes(n))) await new Promise<void>((r) => ws.once("drain", () => r()));
+        left -= n;
+      }
+      ws.end();
+      await new Promise<void>((r) => ws.once("finish", () => r()));
+    }
+    files.push(file);
+  }
+
+  let stopping = false;
+  let completed = 0;
+  let failed = 0;
+  const created: string[] = [];
+  const t0 = performance.now();
+  const once = async (file: string) => {
+    // new bytes each time, or the upload would be taken for a duplicate and not stored
+    const fh = await openFile(file, "r+");
+    await fh.write(randomBytes(64), 0, 64, 1024 * 1024);
+    await fh.close();
+    await new Promise<void>((resolve) => {
+      const upload = new tus.Upload(createReadStream(file) as unknown as Buffer, {
+        endpoint: `http://127.0.0.1:${E2E_PORT}/api/uploads`,
+        chunkSize: UPLOAD_CHUNK_BYTES,
+        retryDelays: [],
+        headers: { cookie },
+        storeFingerprintForResuming: false,
+        metadata: { jobId: flight.jobId, flightId: flight.id, filename: `list-bench-${Date.now()}-${Math.random().toString(36).slice(2)}.264`, filetype: "", relativePath: "null" },
+        onSuccess: ({ lastResponse }) => {
+          const id = lastResponse.getHeader("Cairn-Recording-Id");
+          if (id) created.push(id);
+          completed++;
+          resolve();
+        },
+        onError: (err) => {
+          failed++;
+          console.error(`  upload failed: ${err.message.slice(0, 200)}`);
+          resolve();
+        },
+      });
+      upload.start();
+    });
+  };
+  const loops = files.map(async (file) => {
+    while (!stopping) await once(file);
+  });
+  let stopped: Promise<{ streams: number; mib: number; completed: number; failed: number; mibPerSec: number }> | null = null;
+  return {
+    stop: () =>
+      (stopped ??= (async () => {
+        stopping = true;
+        await Promise.all(loops);
+        const seconds = (performance.now() - t0) / 1000;
+        for (const id of created) {
+          const [row] = await db().select({ key: s.recordings.storageKey }).from(s.recordings).where(eq(s.recordings.id, id));
+          if (row?.key) await removeKey(row.key);
+          await db().delete(s.recordings).where(eq(s.recordings.id, id));
+        }
+        return { streams, mib, completed, failed, mibPerSec: (completed * mib) / seconds };
+      })()),
+  };
 }
 
 void main().then(
