@@ -5,9 +5,10 @@
 // db/client.ts's query observer), minus the session and membership look-ups the bare server does not
 // make. Load: autocannon (npm) with 50 connections per endpoint and server.
 //
-// Two invented organisations seeded by bench/seed-scale.ts: "small" (100 recordings, 1,000 findings,
-// 10,000 custody events) and "large" (10,000 recordings, 100,000 findings, 1,000,000 custody events),
-// reused between runs (.data/bench/list-api-seed-<slot>.json).
+// Two invented organisations seeded by bench/seed-scale.ts: "small" (50 jobs, 100 recordings, 2,500
+// findings, 10,000 custody events) and "large" (100 jobs, 10,000 recordings, 100,000 findings, 1,000,000
+// custody events), reused between runs (.data/bench/list-api-seed-v2-<slot>.json). Every measured page
+// is a full one (50 rows) in both.
 // Endpoints: the recordings list, a job's findings, the jobs list, the custody log, and the recording
 // page's API (GET /api/recordings/:id).
 //
@@ -83,7 +84,7 @@ async function main() {
   await runMigrations(TEST_ENV.MIGRATION_DATABASE_URL, TEST_ENV.DATABASE_URL);
 
   // seed once, reuse later (the custody log is append-only: a fresh seed each run would only grow it)
-  const seedFile = path.join(root, `.data/bench/list-api-seed-${process.env.CAIRN_TEST_SLOT ?? "0"}.json`);
+  const seedFile = path.join(root, `.data/bench/list-api-seed-v2-${process.env.CAIRN_TEST_SLOT ?? "0"}.json`);
   mkdirSync(path.dirname(seedFile), { recursive: true });
   let seeds: Record<"small" | "large", { organisationId: string; ownerUserId: string }> | null = existsSync(seedFile) ? JSON.parse(readFileSync(seedFile, "utf8")) : null;
   if (seeds) {
@@ -95,7 +96,9 @@ async function main() {
     const custody = flag("custody", 1_000_000);
     const t0 = performance.now();
     const log = (line: string) => console.error(`  seed ${((performance.now() - t0) / 1000).toFixed(0)} s: ${line}`);
-    const small = await seedScale(admin, { recordings: 100, findings: 1000, custodyEvents: custody / 100, jobs: 1, flightsPerJob: 10 }, log);
+    // every page is full in both organisations (50 jobs of 2 recordings and 50 findings each here), so
+    // the p95 comparison is of the same page over more data, not of a 1-row answer against a 50-row one
+    const small = await seedScale(admin, { recordings: 100, findings: 2500, custodyEvents: custody / 100, jobs: 50, flightsPerJob: 1 }, log);
     const large = await seedScale(admin, { recordings: 10_000, findings: 100_000, custodyEvents: custody, jobs: 100, flightsPerJob: 10 }, log);
     await admin.end();
     seeds = { small: { organisationId: small.organisationId, ownerUserId: small.ownerUserId }, large: { organisationId: large.organisationId, ownerUserId: large.ownerUserId } };

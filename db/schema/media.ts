@@ -1,4 +1,5 @@
 // Recordings (immutable originals), their derived renditions, signal traces, stills and tags.
+import { sql } from "drizzle-orm";
 import { pgTable, uuid, text, timestamp, doublePrecision, integer, bigint, jsonb, index, uniqueIndex, primaryKey } from "drizzle-orm/pg-core";
 import { organisations, users, timestamps } from "./organisations";
 import { jobs, flights } from "./work";
@@ -63,6 +64,9 @@ export const recordings = pgTable(
     index("recordings_org_seq_idx").on(t.organisationId, t.sequenceIndex, t.createdAt, t.id),
     index("recordings_org_sha_idx").on(t.organisationId, t.sha256),
     index("recordings_state_idx").on(t.state),
+    // the lists' capped count of live recordings (countUpTo in lib/api/keyset.ts): an index-only scan
+    // that stops after COUNT_CAP + 1 entries, where a sequential scan read other organisations' rows first
+    index("recordings_org_live_idx").on(t.organisationId).where(sql`${t.deletedAt} is null`),
   ],
 );
 

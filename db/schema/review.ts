@@ -1,4 +1,5 @@
 // Findings, their history, categories, reports and range checks.
+import { sql } from "drizzle-orm";
 import { pgTable, uuid, text, timestamp, doublePrecision, integer, jsonb, index, uniqueIndex, bigint } from "drizzle-orm/pg-core";
 import { organisations, users, timestamps } from "./organisations";
 import { jobs, flights } from "./work";
@@ -53,6 +54,8 @@ export const findings = pgTable(
     // the findings list's order within a recording (lib/findings/finding-view.ts)
     index("findings_org_recording_frame_idx").on(t.organisationId, t.recordingId, t.startFrame, t.createdAt, t.id),
     index("findings_org_severity_idx").on(t.organisationId, t.severity),
+    // the capped count of a job's live findings, walked recording by recording (lib/findings/finding-view.ts)
+    index("findings_org_recording_live_idx").on(t.organisationId, t.recordingId).where(sql`${t.deletedAt} is null`),
   ],
 );
 

@@ -64,6 +64,15 @@ const columns = {
   updatedAt: findings.updatedAt,
 };
 
+/**
+ * The join to a finding's recording, on the organisation too. A job's findings are asked for by the
+ * recording's job (`recordings.jobId`, the same set: a finding is filed under its recording's job and a
+ * recording never changes job): the planner then walks the job's recordings in order through
+ * recordings_org_job_idx and stops after one page (0.6 ms at 10,000 recordings), where a filter on
+ * `findings.job_id` made it fetch and sort all of the job's findings (6 to 13 ms; bench/list-api.ts).
+ */
+const recordingOfFinding = and(eq(recordings.id, findings.recordingId), eq(recordings.organisationId, findings.organisationId));
+
 // the flight's order of recordings, then time order within each; the ids make the order total
 const KEYS: KeyPart[] = [
   { expr: recordings.sequenceIndex, dir: "asc", type: "int", notNull: true },
@@ -82,7 +91,10 @@ export async function loadFindingViews(organisationId: string, where: SQL | unde
 /** One keyset page of loadFindingViews's list, with the count of all of it (the findings API). */
 export async function listFindingViews(organisationId: string, where: SQL | undefined, page: KeysetParams) {
   const all = and(eq(findings.organisationId, organisationId), isNull(findings.deletedAt), where);
-  const [result, counted] = await Promise.all([pageFindingViews(organisationId, where, page), countUpTo(db().select({ one: sql`1` }).from(findings).where(all).$dynamic())]);
+  const [result, counted] = await Promise.all([
+    pageFindingViews(organisationId, where, page),
+    countUpTo(db().select({ one: sql`1` }).from(findings).innerJoin(recordings, recordingOfFinding).where(all).$dynamic()),
+  ]);
   return { ...result, ...counted };
 }
 
@@ -90,10 +102,7 @@ async function pageFindingViews(organisationId: string, where: SQL | undefined, 
   const query = tx
     .select({ ...columns, ...keysetColumns(KEYS) })
     .from(findings)
-    // the organisation and job are repeated on the join (a finding is always filed under its
-    // recording's job): the planner then walks the job's recordings in order through
-    // recordings_org_job_idx and stops after one page, instead of hashing every recording
-    .innerJoin(recordings, and(eq(recordings.id, findings.recordingId), eq(recordings.organisationId, findings.organisationId), eq(recordings.jobId, findings.jobId)))
+    .innerJoin(recordings, recordingOfFinding)
     .leftJoin(findingCategories, eq(findingCategories.id, findings.categoryId))
     .leftJoin(users, eq(users.id, findings.createdBy))
     .where(and(eq(findings.organisationId, organisationId), isNull(findings.deletedAt), where, afterCursor(page?.cursor, "default", KEYS)))

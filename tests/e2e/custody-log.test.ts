@@ -144,3 +144,19 @@ describe("a job's custody log", () => {
     expect(errors).toEqual([]);
   });
 });
+
+describe("a log longer than the count goes (lib/api/keyset.ts COUNT_CAP: 1,000)", () => {
+  it("says 'at least 1,000' on the job page's link and in the log, and still pages on", async () => {
+    const flight = await makeFlight(orgId);
+    const rec = (await makeStoredRecording(orgId, flight.jobId, flight.id, { name: "long-log-pass.264" })).id;
+    for (let i = 0; i < 1001; i++)
+      await recordCustodyEvent({ organisationId: orgId, jobId: flight.jobId, eventType: "view", evidenceType: "recording", evidenceId: rec, actor: { userId: actors.reviewer!.userId, role: "reviewer" } });
+    await page.goto(`/jobs/${flight.jobId}`);
+    await expect.poll(() => page.getByTestId("custody-log-link").textContent(), { timeout: 15_000 }).toContain("at least 1,000 events; the newest:");
+    await page.goto(`/custody/jobs/${flight.jobId}`);
+    await expect.poll(countText, { timeout: 15_000 }).toBe("Events 1–50 of at least 1,000");
+    await page.getByRole("button", { name: "Older events →" }).click();
+    await expect.poll(countText).toBe("Events 51–100 of at least 1,000");
+    expect(errors).toEqual([]);
+  }, 120_000);
+});

@@ -3,7 +3,7 @@ import { jobScopeCondition } from "@/lib/auth/client-scope";
 import { and, eq } from "drizzle-orm";
 import { withOrg, readJson, parseQuery, created, ok } from "@/lib/api/with-org";
 import { ApiError } from "@/lib/api/errors";
-import { findings } from "@/db/schema";
+import { findings, recordings } from "@/db/schema";
 import { requestFacts } from "@/lib/custody/record-custody-event";
 import { createFindingInput, findingsQuery } from "@/lib/findings/finding-input";
 import { createFinding } from "@/lib/findings/create-finding";
@@ -13,7 +13,8 @@ import { listFindingViews } from "@/lib/findings/finding-view";
 export const GET = withOrg({ permission: "findings.read" }, async ({ req, member }) => {
   const q = parseQuery(req, findingsQuery);
   if (!q.recordingId && !q.jobId) throw new ApiError("bad_request", "Ask for the findings of a recording (recordingId) or a job (jobId)");
-  const where = q.recordingId ? eq(findings.recordingId, q.recordingId) : eq(findings.jobId, q.jobId!);
+  // a job's findings by their recording's job: the same set, and the plan that stops after one page (lib/findings/finding-view.ts)
+  const where = q.recordingId ? eq(findings.recordingId, q.recordingId) : eq(recordings.jobId, q.jobId!);
   return ok(await listFindingViews(member.organisationId, and(where, jobScopeCondition(member, findings.jobId))!, { cursor: q.cursor, pageSize: q.pageSize }));
 });
 

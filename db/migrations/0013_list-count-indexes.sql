@@ -1,0 +1,2 @@
+CREATE INDEX "recordings_org_live_idx" ON "recordings" USING btree ("organisation_id") WHERE "recordings"."deleted_at" is null;--> statement-breakpoint
+CREATE INDEX "findings_org_recording_live_idx" ON "findings" USING btree ("organisation_id","recording_id") WHERE "findings"."deleted_at" is null;
