@@ -93,7 +93,8 @@ function narrowing(filter: CustodyListFilter): SQL | undefined {
   return parts.length ? and(...parts) : undefined;
 }
 
-const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
+/** A UUID as text (POSIX regular expression, matched case-insensitively with ~*) */
+const UUID_PATTERN = "^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$";
 
 /**
  * One page of a custody trail (or the organisation's whole log), filtered, newest first unless asked
@@ -110,61 +111,51 @@ export async function listCustodyEvents(
   const order = opts.order ?? "newest";
   const pageSize = Math.min(Math.max(1, opts.pageSize ?? CUSTODY_PAGE_SIZE_DEFAULT), CUSTODY_PAGE_SIZE_MAX);
   const where = and(await trailCondition(organisationId, filter), narrowing(filter))!;
-  const counted = await countUpTo(db().select({ one: sql`1` }).from(custodyEvents).where(where).$dynamic());
   const beyond = opts.cursor === undefined ? undefined : order === "newest" ? lt(custodyEvents.seq, opts.cursor) : gt(custodyEvents.seq, opts.cursor);
-  const rows = await db()
-    .select({
-      id: custodyEvents.id,
-      seq: custodyEvents.seq,
-      eventType: custodyEvents.eventType,
-      evidenceType: custodyEvents.evidenceType,
-      evidenceId: custodyEvents.evidenceId,
-      jobId: custodyEvents.jobId,
-      details: custodyEvents.details,
-      originalSha256: custodyEvents.originalSha256,
-      actorUserId: custodyEvents.actorUserId,
-      actorName: users.name,
-      actorRole: custodyEvents.actorRole,
-      actorShareLinkId: custodyEvents.actorShareLinkId,
-      occurredAt: custodyEvents.occurredAt,
-      clientAddress: custodyEvents.clientAddress,
-      userAgent: custodyEvents.userAgent,
-      purpose: custodyEvents.purpose,
-      tool: custodyEvents.tool,
-      hash: custodyEvents.hash,
-    })
-    .from(custodyEvents)
-    .leftJoin(users, eq(users.id, custodyEvents.actorUserId))
-    .where(beyond ? and(where, beyond) : where)
-    .orderBy(order === "newest" ? desc(custodyEvents.seq) : asc(custodyEvents.seq))
-    .limit(pageSize + 1);
+  // The recording an event is about: the one its details name (a derived file, still or finding of it),
+  // else the recording itself. The UUID test comes first, so no other text is ever cast (CASE evaluates
+  // its branches in order). Its file name and the job's title come in the same query, by left joins.
+  const recordingIdOf = sql<string | null>`case when jsonb_typeof(${custodyEvents.details}->'recordingId') = 'string' and (${custodyEvents.details}->>'recordingId') ~* ${UUID_PATTERN} then (${custodyEvents.details}->>'recordingId')::uuid when ${custodyEvents.evidenceType} = 'recording' then ${custodyEvents.evidenceId} end`;
+  const [counted, rows] = await Promise.all([
+    countUpTo(db().select({ one: sql`1` }).from(custodyEvents).where(where).$dynamic()),
+    db()
+      .select({
+        id: custodyEvents.id,
+        seq: custodyEvents.seq,
+        eventType: custodyEvents.eventType,
+        evidenceType: custodyEvents.evidenceType,
+        evidenceId: custodyEvents.evidenceId,
+        jobId: custodyEvents.jobId,
+        details: custodyEvents.details,
+        originalSha256: custodyEvents.originalSha256,
+        actorUserId: custodyEvents.actorUserId,
+        actorName: users.name,
+        actorRole: custodyEvents.actorRole,
+        actorShareLinkId: custodyEvents.actorShareLinkId,
+        occurredAt: custodyEvents.occurredAt,
+        clientAddress: custodyEvents.clientAddress,
+        userAgent: custodyEvents.userAgent,
+        purpose: custodyEvents.purpose,
+        tool: custodyEvents.tool,
+        hash: custodyEvents.hash,
+        recordingId: recordingIdOf,
+        recordingName: recordings.originalName,
+        jobTitle: jobs.title,
+      })
+      .from(custodyEvents)
+      .leftJoin(users, eq(users.id, custodyEvents.actorUserId))
+      .leftJoin(recordings, and(eq(recordings.organisationId, custodyEvents.organisationId), eq(recordings.id, recordingIdOf)))
+      .leftJoin(jobs, and(eq(jobs.organisationId, custodyEvents.organisationId), eq(jobs.id, custodyEvents.jobId)))
+      .where(beyond ? and(where, beyond) : where)
+      .orderBy(order === "newest" ? desc(custodyEvents.seq) : asc(custodyEvents.seq))
+      .limit(pageSize + 1),
+  ]);
   const page = rows.slice(0, pageSize);
-
-  // the names readers know things by: the recording's file name and the job's title, read for the whole page at once
-  const recordingOf = (r: (typeof page)[number]): string | null => {
-    const fromDetails = r.details && typeof r.details.recordingId === "string" && UUID.test(r.details.recordingId) ? r.details.recordingId : null;
-    return fromDetails ?? (r.evidenceType === "recording" ? r.evidenceId : null);
-  };
-  const recordingIds = [...new Set(page.map(recordingOf).filter((x): x is string => !!x))];
-  const jobIds = [...new Set(page.map((r) => r.jobId).filter((x): x is string => !!x))];
-  const names = recordingIds.length
-    ? new Map((await db().select({ id: recordings.id, name: recordings.originalName }).from(recordings).where(and(eq(recordings.organisationId, organisationId), inArray(recordings.id, recordingIds)))).map((r) => [r.id, r.name]))
-    : new Map<string, string>();
-  const titles = jobIds.length
-    ? new Map((await db().select({ id: jobs.id, title: jobs.title }).from(jobs).where(and(eq(jobs.organisationId, organisationId), inArray(jobs.id, jobIds)))).map((j) => [j.id, j.title]))
-    : new Map<string, string>();
-
-  const items = page.map(({ details, ...r }) => {
-    const recordingId = recordingOf({ details, ...r });
-    return {
-      ...r,
-      occurredAt: r.occurredAt.toISOString(),
-      jobTitle: r.jobId ? (titles.get(r.jobId) ?? null) : null,
-      recordingId,
-      recordingName: recordingId ? (names.get(recordingId) ?? null) : null,
-      fileKind: r.evidenceType === "rendition" && details && typeof details.kind === "string" ? details.kind : null,
-    };
-  });
+  const items = page.map(({ details, ...r }) => ({
+    ...r,
+    occurredAt: r.occurredAt.toISOString(),
+    fileKind: r.evidenceType === "rendition" && details && typeof details.kind === "string" ? details.kind : null,
+  }));
   const nextCursor = rows.length > pageSize ? String(page[page.length - 1].seq) : null;
   return { items, ...counted, nextCursor };
 }

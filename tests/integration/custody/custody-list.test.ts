@@ -11,7 +11,7 @@ import * as list from "@/app/api/custody/route";
 import * as filters from "@/app/api/custody/filters/route";
 import { recordCustodyEvent, type CustodyInput } from "@/lib/custody/record-custody-event";
 import { demoActors, demoOrganisationId, req, type Actor, type DemoActorKey } from "@/tests/support/session";
-import { makeFlight } from "@/tests/support/factories";
+import { makeFlight, makeRecording } from "@/tests/support/factories";
 import { makeStoredRecording } from "../sharing/share-fixtures";
 import { closeRedis } from "@/lib/queue/redis";
 
@@ -114,6 +114,30 @@ describe("custody list: order and keyset pages", () => {
       expect(e.recordingId).toBe(recordingId);
       expect(e.jobTitle).toBe(jobTitle);
     }
+  });
+});
+
+describe("custody list: the recording an event names", () => {
+  it("a details recordingId that is no UUID, or names another organisation's recording, names nothing (and errs nowhere)", async () => {
+    const other = actors.other!.organisationId!;
+    const theirFlight = await makeFlight(other);
+    const theirs = await makeRecording(other, theirFlight, { originalName: "their-secret-pass.264" });
+    const flight = await makeFlight(orgId);
+    const mark = (details: Record<string, unknown>) =>
+      recordCustodyEvent({ organisationId: orgId, jobId: flight.jobId, eventType: "derived", evidenceType: "rendition", evidenceId: randomUUID(), purpose: "poster", details: { kind: "poster", ...details } });
+    await mark({ recordingId: "not-a-uuid'; select 1 --" });
+    await mark({ recordingId: 42 });
+    await mark({ recordingId: theirs.id });
+    const a = await json("owner", `jobId=${flight.jobId}`);
+    expect(a.items).toHaveLength(3);
+    const byName = a.items.map((e) => [e.recordingId, e.recordingName]);
+    // the string that is no UUID and the number are never cast; the foreign recording's id is kept as the
+    // event's own record says, but its name is not read across organisations
+    expect(byName).toEqual([
+      [theirs.id, null],
+      [null, null],
+      [null, null],
+    ]);
   });
 });
 
