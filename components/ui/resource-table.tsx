@@ -14,6 +14,7 @@ import { Fragment, useId, useState } from "react";
 import { EmptyState } from "./empty-state";
 import { fetchJson } from "@/components/fetch-json";
 
+/** `nextCursor` is absent from lists that are not keyset-paged (members): their pager goes by the count alone. */
 export type ListResult<T> = { items: T[]; total: number; totalIsLowerBound?: boolean; nextCursor?: string | null };
 export type Breakpoint = "sm" | "md" | "lg" | "xl" | "2xl";
 
@@ -310,7 +311,7 @@ export function ResourceTable<T>({
           noMatch={<>Nothing matches “{q}”.</>}
         />
       )}
-      <Pager page={page} pages={pages} onPage={setPage} of={caption ?? searchLabel} atLeast={query.data?.totalIsLowerBound} more={query.data ? query.data.nextCursor != null : undefined} />
+      <Pager page={page} pages={pages} onPage={setPage} of={caption ?? searchLabel} atLeast={query.data?.totalIsLowerBound} more={query.data && query.data.nextCursor !== undefined ? query.data.nextCursor !== null : undefined} />
     </div>
   );
 }
