@@ -271,8 +271,8 @@ async function main() {
  */
 async function startUploads(streams: number, mib: number) {
   if (streams <= 0) return null;
-  const { open: openFile, mkdir: makeDir, readFile: read, stat: statFile } = await import("node:fs/promises");
-  const { createReadStream, createWriteStream } = await import("node:fs");
+  const { open: openFile } = await import("node:fs/promises");
+  const { createReadStream } = await import("node:fs");
   const { randomBytes } = await import("node:crypto");
   const os = await import("node:os");
   const tus = await import("tus-js-client");
@@ -282,32 +282,15 @@ async function startUploads(streams: number, mib: number) {
   const { removeKey } = await import("@/lib/storage/store");
   const { actorByEmail, sessionCookie } = await import("@/tests/support/session");
   const { makeFlight } = await import("@/tests/support/factories");
-  const { makeRawH264 } = await import("@/tests/support/media/make-h264");
+  const { paddedH264 } = await import("./support/padded-h264");
   const { UPLOAD_CHUNK_BYTES } = await import("@/lib/uploads/upload-limits");
 
   const pilot = await actorByEmail("pilot@kestrelmoor.example");
   const flight = await makeFlight(pilot.organisationId, { aircraft: "bench" });
   const cookie = await sessionCookie(pilot);
   const size = mib * 1024 * 1024;
-  const dir = path.join(os.tmpdir(), "cairn-bench");
-  await makeDir(dir, { recursive: true });
-  const head = await read(await makeRawH264({ seconds: 2 }));
   const files: string[] = [];
-  for (let i = 0; i < streams; i++) {
-    const file = path.join(dir, `list-api-upload-${i}-${mib}MiB.264`);
-    if ((await statFile(file).catch(() => null))?.size !== size) {
-      const ws = createWriteStream(file);
-      ws.write(head);
-      for (let left = size - head.length; left > 0; ) {
-        const n = Math.min(left, 8 * 1024 * 1024);
-        if (!ws.write(randomBytes(n))) await new Promise<void>((r) => ws.once("drain", () => r()));
-        left -= n;
-      }
-      ws.end();
-      await new Promise<void>((r) => ws.once("finish", () => r()));
-    }
-    files.push(file);
-  }
+  for (let i = 0; i < streams; i++) files.push(await paddedH264(path.join(os.tmpdir(), "cairn-bench", `list-api-upload-${i}-${mib}MiB.264`), size));
 
   let stopping = false;
   let completed = 0;

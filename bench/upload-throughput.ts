@@ -34,7 +34,7 @@
 // the order of the sides, and each ratio is printed with the range of its per-round ratios.
 import { spawn, type ChildProcess } from "node:child_process";
 import { createReadStream, createWriteStream, existsSync } from "node:fs";
-import { mkdir, open, readFile, rm, stat } from "node:fs/promises";
+import { mkdir, open, readFile, rm } from "node:fs/promises";
 import http from "node:http";
 import os from "node:os";
 import path from "node:path";
@@ -90,7 +90,7 @@ async function main() {
   const { UPLOAD_CHUNK_BYTES } = await import("@/lib/uploads/upload-limits");
   const { actorByEmail, sessionCookie } = await import("@/tests/support/session");
   const { makeFlight } = await import("@/tests/support/factories");
-  const { makeRawH264 } = await import("@/tests/support/media/make-h264");
+  const { paddedH264 } = await import("./support/padded-h264");
   const tus = await import("tus-js-client");
 
   const mib = Number(process.env.BENCH_MB ?? 1024);
@@ -105,20 +105,7 @@ async function main() {
   const basePort = E2E_PORT + 9;
 
   // the source: a real raw H.264 head (the content check reads it) padded with random bytes
-  const source = path.join(os.tmpdir(), "cairn-bench", `upload-${mib}MiB.264`);
-  await mkdir(path.dirname(source), { recursive: true });
-  if ((await stat(source).catch(() => null))?.size !== size) {
-    const head = await readFile(await makeRawH264({ seconds: 2 }));
-    const ws = createWriteStream(source);
-    ws.write(head);
-    for (let left = size - head.length; left > 0; ) {
-      const n = Math.min(left, 8 * 1024 * 1024);
-      if (!ws.write(randomBytes(n))) await new Promise<void>((r) => ws.once("drain", () => r()));
-      left -= n;
-    }
-    ws.end();
-    await new Promise<void>((r) => ws.once("finish", () => r()));
-  }
+  const source = await paddedH264(path.join(os.tmpdir(), "cairn-bench", `upload-${mib}MiB.264`), size);
   // each tus round must carry new bytes, or it would be recognised as a duplicate and not stored
   const freshen = async () => {
     const fh = await open(source, "r+");

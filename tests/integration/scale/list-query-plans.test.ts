@@ -41,8 +41,8 @@ function nodes(plan: PlanNode): PlanNode[] {
   return [plan, ...(plan.Plans ?? []).flatMap(nodes)];
 }
 
-/** Runs `call`, returns the plan of the one query it sent that reads `table` with a LIMIT (the page). */
-async function planOfPage(table: string, call: () => Promise<unknown>, seqscanOff = false): Promise<PlanNode[]> {
+/** The statements `call` sends, as postgres.js reports them. */
+async function sentBy(call: () => Promise<unknown>): Promise<{ query: string; parameters: unknown[] }[]> {
   const sent: { query: string; parameters: unknown[] }[] = [];
   const stop = observeQueries((query, parameters) => sent.push({ query, parameters }));
   try {
@@ -50,6 +50,12 @@ async function planOfPage(table: string, call: () => Promise<unknown>, seqscanOf
   } finally {
     stop();
   }
+  return sent;
+}
+
+/** Runs `call`, returns the plan of the one query it sent that reads `table` with a LIMIT (the page). */
+async function planOfPage(table: string, call: () => Promise<unknown>, seqscanOff = false): Promise<PlanNode[]> {
+  const sent = await sentBy(call);
   // the page query is the one with a LIMIT that is not the capped count beside it
   const page = sent.filter((q) => new RegExp(`from "${table}"`).test(q.query) && /\blimit\b/i.test(q.query) && !CAPPED_COUNT.test(q.query));
   expect(page, `one page query on ${table}`).toHaveLength(1);
@@ -135,14 +141,7 @@ describe("the page queries of the lists read an index (10,000 recordings, analys
 describe("list counts stop at the cap (lib/api/keyset.ts COUNT_CAP)", () => {
   /** The count query `call` sent, and its plan. */
   async function countQuery(table: string, call: () => Promise<unknown>) {
-    const sent: { query: string; parameters: unknown[] }[] = [];
-    const stop = observeQueries((query, parameters) => sent.push({ query, parameters }));
-    try {
-      await call();
-    } finally {
-      stop();
-    }
-    const counts = sent.filter((q) => CAPPED_COUNT.test(q.query) && new RegExp(`from "${table}"`).test(q.query));
+    const counts = (await sentBy(call)).filter((q) => CAPPED_COUNT.test(q.query) && new RegExp(`from "${table}"`).test(q.query));
     expect(counts.length, `a count of ${table}`).toBeGreaterThan(0);
     const rows = await sqlClient().unsafe(`explain (format json) ${counts[0].query}`, counts[0].parameters as postgres.ParameterOrJSON<never>[]);
     return nodes((rows[0] as unknown as { "QUERY PLAN": { Plan: PlanNode }[] })["QUERY PLAN"][0].Plan);
