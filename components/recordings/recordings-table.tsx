@@ -333,7 +333,7 @@ export function RecordingsTable({
         onPage={setPage}
         of="recordings"
         atLeast={query.data?.totalIsLowerBound}
-        more={query.data && query.data.nextCursor !== undefined ? query.data.nextCursor !== null : undefined}
+        nextCursor={query.data?.nextCursor}
       />
     </div>
   );

@@ -197,11 +197,12 @@ export function DataTable<T>({
 }
 
 /**
- * Previous / next under a paged list. `more` is the list's own word that a page follows this one (its
- * `nextCursor`); it matters when the count is only a lower bound, so `pages` may be short of the end.
+ * Previous / next under a paged list. `nextCursor` is the list's own word on whether a page follows
+ * this one (null: none); it matters when the count is only a lower bound (`atLeast`), so `pages` may be
+ * short of the end. A list that answers no cursor at all (undefined) is paged by its count alone.
  */
-export function Pager({ page, pages, onPage, of, atLeast = false, more }: { page: number; pages: number; onPage: (p: number) => void; of?: string; atLeast?: boolean; more?: boolean }) {
-  const hasNext = more ?? page < pages;
+export function Pager({ page, pages, onPage, of, atLeast = false, nextCursor }: { page: number; pages: number; onPage: (p: number) => void; of?: string; atLeast?: boolean; nextCursor?: string | null }) {
+  const hasNext = nextCursor === undefined ? page < pages : nextCursor !== null;
   if (pages <= 1 && !hasNext && page <= 1) return null;
   return (
     // one page can hold several paged lists: each navigation landmark gets its own name
@@ -311,7 +312,7 @@ export function ResourceTable<T>({
           noMatch={<>Nothing matches “{q}”.</>}
         />
       )}
-      <Pager page={page} pages={pages} onPage={setPage} of={caption ?? searchLabel} atLeast={query.data?.totalIsLowerBound} more={query.data && query.data.nextCursor !== undefined ? query.data.nextCursor !== null : undefined} />
+      <Pager page={page} pages={pages} onPage={setPage} of={caption ?? searchLabel} atLeast={query.data?.totalIsLowerBound} nextCursor={query.data?.nextCursor} />
     </div>
   );
 }
